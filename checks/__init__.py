@@ -1,0 +1,1 @@
+"""Code checks, findings, writers (BCF, JSON, HTML, CSV), the pipeline and the CLI."""
