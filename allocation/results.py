@@ -28,6 +28,7 @@ __all__ = [
     "LevelLoad",
     "LineId",
     "LoadCase",
+    "MassItem",
     "Method",
     "PierEnvelope",
     "PierId",
@@ -107,6 +108,29 @@ class WeightItem:
 
 
 @dataclass(frozen=True, slots=True, kw_only=True)
+class MassItem:
+    """A part of a level's seismic weight with its plan location, for the allocation.
+
+    Attributes:
+        source: ``"slab"``, ``"wall"`` or ``"extra"``.
+        ref: Diaphragm id (slab, extra) or wall GlobalId (wall).
+        weight: Weight [N].
+        location: Centroid (x, y) [m].
+        polygon: For a distributed item (slab, extra), the plan region it is spread
+            over uniformly; None for a point item (a wall's tributary weight, at its
+            mid-point).
+        pier_part: For a wall: ``WallSegment.part`` of the segment, else 0.
+    """
+
+    source: str
+    ref: str
+    weight: float
+    location: tuple[float, float]
+    polygon: Polygon | None = None
+    pier_part: int = 0
+
+
+@dataclass(frozen=True, slots=True, kw_only=True)
 class LevelLoad:
     """Seismic weight and forces of one diaphragm level.
 
@@ -122,6 +146,7 @@ class LevelLoad:
         diaphragm_force: Fpx, ASCE 7-16 Eq. 12.10-1 with its bounds [N].
         Cvx: Vertical distribution factor, Eq. 12.8-12 [-] (0 for given forces).
         mass_centroid: Centre of the weight at this level (x, y) [m].
+        masses: The weight as located items; weights add up to ``seismic_weight``.
     """
 
     level: str
@@ -135,6 +160,7 @@ class LevelLoad:
     diaphragm_force: float = 0.0
     Cvx: float = 0.0
     mass_centroid: tuple[float, float] = (0.0, 0.0)
+    masses: tuple[MassItem, ...] = ()
 
 
 @dataclass(frozen=True, slots=True, kw_only=True)

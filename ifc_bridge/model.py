@@ -286,6 +286,9 @@ class BuildingModel:
         ifc_wall_count: Number of IfcWall entities (subtypes included) in the file.
         issues: Problems found while reading, for the report and findings.
         storey_guids: Storey name -> GlobalId, for every storey read.
+        wall_storeys: ``(IfcWall GlobalId, storey name it stands on)`` for every IfcWall
+            in the file, including walls with no usable geometry (``""`` when it is in
+            no storey and none could be inferred); ``inspect`` counts walls from it.
     """
 
     source: str
@@ -299,6 +302,7 @@ class BuildingModel:
     ifc_wall_count: int = 0
     issues: tuple[ImportIssue, ...] = ()
     storey_guids: tuple[tuple[str, IfcGuid], ...] = field(default=())
+    wall_storeys: tuple[tuple[IfcGuid, str], ...] = field(default=())
 
     def __post_init__(self) -> None:
         elevations = [lv.elevation for lv in self.levels]
