@@ -155,6 +155,8 @@ class AssemblyProperties:
         Ga: Apparent shear stiffness of wood structural panel walls, SDPWS [N/m].
         chord_EA: Axial stiffness E·A of a chord (end post) for SDPWS flexure term [N].
         hold_down_slip: Hold-down deformation at design load, SDPWS Δa [m].
+        design_unit_shear: Unit shear at which ``hold_down_slip`` occurs (the design
+            level); the SDPWS wall stiffness is the secant stiffness there [N/m].
     """
 
     name: str
@@ -165,6 +167,7 @@ class AssemblyProperties:
     Ga: float | None = None
     chord_EA: float | None = None
     hold_down_slip: float | None = None
+    design_unit_shear: float | None = None
 
 
 @dataclass(frozen=True, slots=True, kw_only=True)

@@ -1,0 +1,132 @@
+"""The ``shearline`` command: inspect, init, check, demo, requirements.
+
+Exit codes: 0 ran with no error-severity finding; 1 error-severity findings exist;
+2 usage or input error (one line on stderr; the traceback only with ``--debug``).
+"""
+
+from __future__ import annotations
+
+import argparse
+import sys
+from collections.abc import Sequence
+from pathlib import Path
+
+from allocation.errors import AllocationError
+from checks.errors import CheckError
+from ifc_bridge.errors import IfcBridgeError
+from ifc_bridge.model import ModelError
+
+__all__ = ["main"]
+
+_ERRORS = (IfcBridgeError, CheckError, AllocationError, ModelError)
+
+
+def _inspect(args: argparse.Namespace) -> int:
+    from checks.report import terminal
+
+    return terminal.inspect(args.model, config=args.config, as_json=args.json)
+
+
+def _init(args: argparse.Namespace) -> int:
+    from checks.report import terminal
+
+    return terminal.init(args.model, out=args.output, force=args.force)
+
+
+def _check(args: argparse.Namespace) -> int:
+    from checks.report import terminal
+
+    return terminal.check(
+        args.model, config=args.config, out=args.out, previous=args.previous,
+        annotate=args.annotate, bcf_version=args.bcf_version, units=args.units,
+        verbosity=args.verbosity,
+    )
+
+
+def _demo(args: argparse.Namespace) -> int:
+    from importlib.resources import files
+
+    from checks.report import terminal
+
+    demo = Path(str(files("sample_models")))
+    return terminal.check(
+        demo / "demo_building.ifc", config=demo / "demo.toml", out=args.out,
+        previous=None, annotate=True, bcf_version=None, units=args.units,
+        verbosity=args.verbosity, demo=True,
+    )
+
+
+def _requirements(args: argparse.Namespace) -> int:
+    from checks.report import terminal
+
+    return terminal.requirements(args.output)
+
+
+def _parser() -> argparse.ArgumentParser:
+    p = argparse.ArgumentParser(
+        prog="shearline",
+        description="Seismic force allocation to shear walls from an IFC model, with "
+        "code checks written back as BCF. An aid to a licensed engineer; local codes "
+        "and the authority having jurisdiction govern.",
+        epilog="Exit codes: 0 no error findings, 1 error findings, 2 bad input.",
+    )
+    p.add_argument("--debug", action="store_true", help="show tracebacks on errors")
+    sub = p.add_subparsers(dest="command", required=True, metavar="COMMAND")
+
+    s = sub.add_parser("inspect", help="list levels, diaphragms, shear walls, warnings")
+    s.add_argument("model", type=Path, help="IFC file")
+    s.add_argument("--config", type=Path, help="project TOML (assembly match rules)")
+    s.add_argument("--json", action="store_true", help="print JSON instead of tables")
+    s.set_defaults(func=_inspect)
+
+    s = sub.add_parser("init", help="write a starter config from the model's wall types")
+    s.add_argument("model", type=Path, help="IFC file")
+    s.add_argument("-o", "--output", type=Path, default=Path("shearline.toml"))
+    s.add_argument("--force", action="store_true", help="overwrite an existing file")
+    s.set_defaults(func=_init)
+
+    for name, helptext, func in (
+        ("check", "allocate forces, check walls and diaphragms, write outputs", _check),
+        ("demo", "run the check on the bundled demo building", _demo),
+    ):
+        s = sub.add_parser(name, help=helptext)
+        if name == "check":
+            s.add_argument("model", type=Path, help="IFC file")
+            s.add_argument("--config", type=Path, required=True, help="project TOML")
+            s.add_argument("--previous", type=Path,
+                           help="previous findings.bcf (or findings.json) to re-check")
+            s.add_argument("--annotate", action="store_true",
+                           help="write an IFC copy with results as property sets")
+            s.add_argument("--bcf-version", choices=("2.1", "3.0"))
+        s.add_argument("--out", type=Path, default=Path("shearline-out"),
+                       help="output folder (default: shearline-out)")
+        s.add_argument("--units", choices=("imperial", "si"),
+                       help="display units (default: from the config)")
+        g = s.add_mutually_exclusive_group()
+        g.add_argument("-q", "--quiet", dest="verbosity", action="store_const", const=0)
+        g.add_argument("-v", "--verbose", dest="verbosity", action="store_const", const=2)
+        s.set_defaults(func=func, verbosity=1)
+
+    s = sub.add_parser("requirements", help="write the IDS of what the model must carry")
+    s.add_argument("-o", "--output", type=Path, default=Path("shearline-requirements.ids"))
+    s.set_defaults(func=_requirements)
+    return p
+
+
+def main(argv: Sequence[str] | None = None) -> int:
+    """Run the command line; returns the exit code."""
+    args = _parser().parse_args(argv)
+    try:
+        return args.func(args)
+    except _ERRORS as exc:
+        if args.debug:
+            raise
+        print(f"shearline: error: {exc}", file=sys.stderr)
+        return 2
+    except KeyboardInterrupt:
+        print("shearline: interrupted", file=sys.stderr)
+        return 2
+
+
+if __name__ == "__main__":
+    sys.exit(main())

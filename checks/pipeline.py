@@ -1,0 +1,172 @@
+"""The whole check in one call: IFC + config -> model, forces, findings, output files.
+
+For notebooks::
+
+    from checks.pipeline import check_model
+    run = check_model("sample_models/demo_building.ifc", "sample_models/demo.toml")
+    run.allocation.levels[0].story_force      # N
+    [f.title for f in run.findings]
+
+The CLI (``shearline check``) calls :func:`check_model` then :func:`write_outputs`.
+"""
+
+from __future__ import annotations
+
+import logging
+import os
+from collections.abc import Callable
+from dataclasses import dataclass
+from pathlib import Path
+
+from allocation.results import Allocation
+from checks.errors import ConfigError, OutputError
+from checks.findings import Finding, Severity
+from checks.project import DisplayUnits, ProjectConfig
+from ifc_bridge.model import BuildingModel
+
+__all__ = ["CheckRun", "check_model", "load_model", "write_outputs"]
+
+log = logging.getLogger(__name__)
+
+Progress = Callable[[str, int, int], None]
+
+
+@dataclass(frozen=True, slots=True, kw_only=True)
+class CheckRun:
+    """Everything one check produced.
+
+    Attributes:
+        model: The structural model read from IFC.
+        config: The project config.
+        allocation: Forces per level, line and pier.
+        checks: The rule results (findings, per-pier numbers, rho).
+    """
+
+    model: BuildingModel
+    config: ProjectConfig
+    allocation: Allocation
+    checks: object
+
+    @property
+    def findings(self) -> tuple[Finding, ...]:
+        """All findings, errors first."""
+        return tuple(self.checks.findings)
+
+    @property
+    def has_errors(self) -> bool:
+        """True when any finding has error severity (``check`` exits with 1)."""
+        return any(f.severity is Severity.ERROR for f in self.findings)
+
+
+def _config(config: ProjectConfig | str | os.PathLike) -> ProjectConfig:
+    if isinstance(config, ProjectConfig):
+        return config
+    from checks.config import load_config
+
+    return load_config(config)
+
+
+def _check_storey_names(model: BuildingModel, config: ProjectConfig) -> None:
+    names = {lv.name for lv in model.levels}
+    keys = [
+        ("seismic.level_forces", [n for n, _ in config.seismic.level_forces]),
+        ("loads.extra", [n for n, _ in config.loads.extra]),
+        ("levels.diaphragms", list(config.analysis.diaphragm_levels)),
+        ("levels.base", [config.seismic.base_level] if config.seismic.base_level else []),
+    ]
+    for key, given in keys:
+        for name in given:
+            if name not in names:
+                msg = (
+                    f"{config.path}: {key}: storey {name!r} is not in {model.source}; "
+                    f"its storeys are {', '.join(repr(n) for n in names)}"
+                )
+                raise ConfigError(msg)
+
+
+def load_model(
+    model_path: str | os.PathLike, config: ProjectConfig, progress: Progress | None = None
+) -> BuildingModel:
+    """Read the IFC file with the config's shear-wall rules and diaphragm levels."""
+    from ifc_bridge.read_model import read_model
+
+    return read_model(
+        model_path,
+        rules=config.match_rules,
+        use_predefined_type=config.use_predefined_type,
+        diaphragm_storeys=config.analysis.diaphragm_levels,
+        progress=progress,
+    )
+
+
+def check_model(
+    model_path: str | os.PathLike,
+    config: ProjectConfig | str | os.PathLike,
+    *,
+    progress: Progress | None = None,
+) -> CheckRun:
+    """Read, allocate and check one IFC model.
+
+    Args:
+        model_path: The architect's IFC file.
+        config: A :class:`ProjectConfig` or the path of its TOML file.
+        progress: Optional ``progress(stage, done, total)`` callback.
+
+    Returns:
+        The model, forces and findings.
+
+    Raises:
+        IfcBridgeError: The IFC file cannot be used.
+        ConfigError: The config is wrong or names a storey the model lacks.
+        AllocationError: The forces cannot be computed.
+    """
+    from allocation.allocate import allocate
+    from checks.rules.run_rules import run_checks
+
+    cfg = _config(config)
+    model = load_model(model_path, cfg, progress)
+    _check_storey_names(model, cfg)
+    allocation = allocate(model, cfg.seismic, cfg.loads, cfg.analysis)
+    checks = run_checks(model, allocation, cfg)
+    return CheckRun(model=model, config=cfg, allocation=allocation, checks=checks)
+
+
+def write_outputs(
+    run: CheckRun,
+    out_dir: str | os.PathLike,
+    *,
+    previous: str | os.PathLike | None = None,
+    annotate: bool = False,
+    bcf_version: str | None = None,
+    units: str | None = None,
+) -> dict[str, Path]:
+    """Write results.json, the CSVs, findings.json, findings.bcf, report.html.
+
+    Args:
+        run: The check run.
+        out_dir: Output folder (created).
+        previous: A previous ``findings.bcf`` (or its JSON) to carry the design team's
+            replies forward: gone findings are closed, new ones added.
+        annotate: Also write an annotated copy of the IFC (``<model>.shearline.ifc``).
+        bcf_version: ``"2.1"`` or ``"3.0"``; default from the config.
+        units: Display units of the CSVs and the report; default from the config.
+
+    Returns:
+        Output kind -> path written.
+
+    Raises:
+        OutputError: The folder or a file cannot be written.
+    """
+    from checks.outputs import write_all
+
+    out = Path(out_dir)
+    try:
+        out.mkdir(parents=True, exist_ok=True)
+    except OSError as exc:
+        msg = f"{out}: cannot create the output folder: {exc.strerror}"
+        raise OutputError(msg) from exc
+    return write_all(
+        run, out, previous=previous, annotate=annotate,
+        bcf_version=bcf_version or run.config.bcf_version,
+        system=DisplayUnits(units or run.config.display_units.value),
+    )

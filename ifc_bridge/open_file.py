@@ -1,0 +1,123 @@
+"""Open an IFC-SPF file with ifcopenshell, with one-line errors for unusable files.
+
+Checks done before and after ifcopenshell parses the file: the file exists, starts
+with the ISO 10303-21 magic, declares a schema ifcopenshell knows, and ends with the
+``END-ISO-10303-21;`` trailer (ifcopenshell opens a file cut in half without a word).
+A header token ``IFC4X3`` (written by exporters before IFC 4.3 ADD2) is read as
+``IFC4X3_ADD2``.
+"""
+
+from __future__ import annotations
+
+import logging
+import os
+import re
+from pathlib import Path
+
+import ifcopenshell
+
+from ifc_bridge.errors import IfcFileError, IfcSchemaError
+
+__all__ = ["SUPPORTED_SCHEMAS", "open_ifc", "schema_name"]
+
+_LOG = logging.getLogger(__name__)
+
+SUPPORTED_SCHEMAS = ("IFC2X3", "IFC4", "IFC4X3")
+_MAGIC = b"ISO-10303-21;"
+_TRAILER = b"END-ISO-10303-21;"
+_SCHEMA_RE = re.compile(rb"FILE_SCHEMA\s*\(\s*\(\s*'([^']*)'", re.IGNORECASE)
+_PRE_ADD2_RE = re.compile(rb"(FILE_SCHEMA\s*\(\s*\(\s*')IFC4X3('\s*\)\s*\))", re.IGNORECASE)
+
+
+def _header_schema(path: Path) -> str:
+    with path.open("rb") as fh:
+        head = fh.read(65536)
+    if not head.lstrip().startswith(_MAGIC):
+        kind = "a zip archive (ifcZIP?)" if head.startswith(b"PK") else "not IFC-SPF text"
+        if head.lstrip().startswith(b"<"):
+            kind = "XML (ifcXML?)"
+        msg = (
+            f"{path}: not an IFC-SPF file ({kind}, no 'ISO-10303-21;' header); "
+            "export the model as IFC (.ifc, STEP physical file)"
+        )
+        raise IfcFileError(msg)
+    match = _SCHEMA_RE.search(head)
+    if match is None:
+        msg = f"{path}: no FILE_SCHEMA in the header; the file is damaged, export it again"
+        raise IfcFileError(msg)
+    return match.group(1).decode("ascii", "replace").upper()
+
+
+def _check_trailer(path: Path) -> None:
+    size = path.stat().st_size
+    with path.open("rb") as fh:
+        fh.seek(max(0, size - 4096))
+        tail = fh.read()
+    if _TRAILER not in tail:
+        msg = (
+            f"{path}: file is truncated (no 'END-ISO-10303-21;' at the end); "
+            "copy or export the file again"
+        )
+        raise IfcFileError(msg)
+
+
+def _schema_name(ifc: ifcopenshell.file) -> str:
+    schema = ifc.schema.upper()
+    return "IFC4X3" if schema.startswith("IFC4X3") else schema
+
+
+def open_ifc(path: str | os.PathLike[str]) -> ifcopenshell.file:
+    """Open an IFC file for reading.
+
+    Common practice: IFC-SPF (ISO 10303-21) files of schema IFC2X3, IFC4 or IFC4X3.
+
+    Args:
+        path: File to open.
+
+    Returns:
+        The parsed file.
+
+    Raises:
+        IfcFileError: Missing, unreadable, not IFC-SPF, truncated or unparsable.
+        IfcSchemaError: The header names a schema other than IFC2X3, IFC4, IFC4X3.
+    """
+    p = Path(path)
+    if not p.is_file():
+        msg = f"{p}: file not found; check the path"
+        raise IfcFileError(msg)
+    try:
+        declared = _header_schema(p)
+        _check_trailer(p)
+    except OSError as exc:
+        if isinstance(exc, IfcFileError):
+            raise
+        msg = f"{p}: cannot read the file ({exc.strerror or exc}); check its permissions"
+        raise IfcFileError(msg) from exc
+    if not declared.startswith(SUPPORTED_SCHEMAS):
+        msg = (
+            f"{p}: schema {declared!r} is not supported; export as one of "
+            f"{', '.join(SUPPORTED_SCHEMAS)}"
+        )
+        raise IfcSchemaError(msg)
+    try:
+        if declared == "IFC4X3":
+            _LOG.info("%s: header schema IFC4X3 read as IFC4X3_ADD2", p)
+            text = _PRE_ADD2_RE.sub(rb"\1IFC4X3_ADD2\2", p.read_bytes(), count=1)
+            ifc = ifcopenshell.file.from_string(text.decode("utf-8", "replace"))
+        else:
+            ifc = ifcopenshell.open(str(p))
+    except ifcopenshell.SchemaError as exc:
+        msg = f"{p}: schema {declared!r} cannot be read ({exc}); export as IFC2X3 or IFC4"
+        raise IfcSchemaError(msg) from exc
+    except Exception as exc:  # ifcopenshell raises bare Exception / ifcopenshell.Error
+        msg = f"{p}: cannot parse the IFC file ({exc}); export it again"
+        raise IfcFileError(msg) from exc
+    if _schema_name(ifc) not in SUPPORTED_SCHEMAS:
+        msg = f"{p}: schema {ifc.schema!r} is not supported; export as IFC2X3 or IFC4"
+        raise IfcSchemaError(msg)
+    return ifc
+
+
+def schema_name(ifc: ifcopenshell.file) -> str:
+    """Schema family of an open file: ``"IFC2X3"``, ``"IFC4"`` or ``"IFC4X3"``."""
+    return _schema_name(ifc)
