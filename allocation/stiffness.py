@@ -205,17 +205,18 @@ def _assign_level(
     level: str, piers: Sequence[Pier], options: AnalysisOptions
 ) -> tuple[list[Pier], Condition | None]:
     """Stiffness of one level's piers on one basis, with the fallback condition."""
-    props = {p.id: options.assembly(p.assembly) for p in piers}
-    missing = {p.id: _missing_inputs(p, props[p.id]) for p in piers}
-    lacking = [p for p in piers if p.direction is not None and missing[p.id]]
+    props = [options.assembly(p.assembly) for p in piers]
+    missing = [_missing_inputs(p, a) for p, a in zip(piers, props, strict=True)]
+    lacking = [p for p, m in zip(piers, missing, strict=True)
+               if p.direction is not None and m]
     if not lacking:
         out = [
-            replace(p, stiffness=0.0 if missing[p.id] else
-                    _assembly_stiffness(p, props[p.id]))
-            for p in piers
+            replace(p, stiffness=0.0 if m else _assembly_stiffness(p, a))
+            for p, a, m in zip(piers, props, missing, strict=True)
         ]
         return out, None
-    reasons = sorted({missing[p.id] for p in lacking})
+    reasons = sorted({m for p, m in zip(piers, missing, strict=True)
+                      if p.direction is not None and m})
     detail = (
         f"level {level}: wall stiffness from length for all its piers, because "
         f"{len(lacking)} pier(s) cannot use analysis.wall_stiffness = 'assembly': "
@@ -257,14 +258,14 @@ def assign_stiffness(
     """
     if options.wall_stiffness is WallStiffness.LENGTH:
         return tuple(replace(p, stiffness=float(p.length)) for p in piers), ()
-    by_level: dict[str, list[Pier]] = {}
-    for p in piers:
-        by_level.setdefault(p.level, []).append(p)
-    done: dict[str, Pier] = {}
+    by_level: dict[str, list[int]] = {}
+    for i, p in enumerate(piers):
+        by_level.setdefault(p.level, []).append(i)
+    done: dict[int, Pier] = {}
     conditions: list[Condition] = []
-    for level, group in by_level.items():
-        assigned, cond = _assign_level(level, group, options)
-        done.update((p.id, p) for p in assigned)
+    for level, index in by_level.items():
+        assigned, cond = _assign_level(level, [piers[i] for i in index], options)
+        done.update(zip(index, assigned, strict=True))
         if cond is not None:
             conditions.append(cond)
-    return tuple(done[p.id] for p in piers), tuple(conditions)
+    return tuple(done[i] for i in range(len(piers))), tuple(conditions)

@@ -18,9 +18,12 @@ from dataclasses import dataclass
 import ifcopenshell
 import ifcopenshell.geom
 import numpy as np
+import shapely
+import shapely.affinity
 from numpy.typing import NDArray
+from shapely.geometry import MultiPolygon, Polygon
 
-__all__ = ["KERNELS", "Mesh", "mesh_elements"]
+__all__ = ["KERNELS", "Mesh", "mesh_elements", "mesh_footprint"]
 
 _LOG = logging.getLogger(__name__)
 
@@ -144,3 +147,36 @@ def mesh_elements(
     if progress is not None:
         progress("geometry", len(elements), len(elements))
     return out
+
+
+def mesh_footprint(mesh: Mesh, *, up_only: bool) -> Polygon | MultiPolygon:
+    """Plan projection of a mesh: union of its (up-facing) triangles.
+
+    Common practice: the footprint of a slab is what is seen from above; the plan
+    of a solid (an opening body) is the projection of all its non-vertical faces.
+    Coordinates are shifted to a local origin during the union, so georeferenced
+    models (1e6 m from the origin) keep their precision.
+
+    Args:
+        mesh: World-coordinate mesh [m].
+        up_only: Keep only triangles whose normal points up.
+
+    Returns:
+        Plan polygon in world X-Y [m]; empty when no face qualifies.
+    """
+    origin = mesh.verts[0, :2].copy()
+    v = mesh.verts - np.array([origin[0], origin[1], 0.0])
+    tri = v[mesh.faces]
+    normal = np.cross(tri[:, 1] - tri[:, 0], tri[:, 2] - tri[:, 0])
+    norm = np.linalg.norm(normal, axis=1)
+    ok = norm > 1e-12
+    nz = np.zeros(len(tri))
+    nz[ok] = normal[ok, 2] / norm[ok]
+    keep = nz > 0.01 if up_only else np.abs(nz) > 0.01
+    flat = tri[keep][:, :, :2]
+    if len(flat) == 0:
+        return Polygon()
+    polys = shapely.polygons(flat)
+    polys = polys[shapely.area(polys) > 1e-12]
+    union = shapely.union_all(polys)
+    return shapely.affinity.translate(union, float(origin[0]), float(origin[1]))

@@ -1,0 +1,405 @@
+"""Seismic weight of each diaphragm level, from the model's slabs and walls.
+
+Plan coordinates are global X-Y [m]; weights in N, loads per area in Pa.
+
+Common practice, as used here:
+
+* Slab weight: diaphragm plan area (openings excluded) × the roof dead load where the
+  diaphragm's kind is ``ROOF``, else × the floor dead load.
+* Walls: each story-high wall segment (shear wall or not) sends half its weight to the
+  level it stands on and half to the level whose diaphragm it supports. A wall with
+  nothing above it (``level == ""``: a parapet, a wall above the roof) sends its whole
+  weight to the level it stands on.
+* Weight that lands on the seismic base, or on a level below it, is not part of the
+  effective seismic weight W (it goes straight to the foundation).
+* Weight that lands on a level above the base that carries no diaphragm goes to the
+  nearest diaphragm level by elevation (the upper one on a tie), and is logged.
+* Wall elevation area is length × height less the openings (clipped to the segment);
+  the unit load is the assembly's ``wall_dead_load``, else ``loads.wall``.
+* Extra weight given for a level is spread over its diaphragms in proportion to area.
+"""
+
+from __future__ import annotations
+
+import logging
+import math
+from collections import defaultdict
+from collections.abc import Iterable, Sequence
+from dataclasses import dataclass
+
+from allocation.errors import ParameterError
+from allocation.parameters import AnalysisOptions, DeadLoads
+from allocation.results import LevelLoad, MassItem, WeightItem
+from ifc_bridge.model import BuildingModel, Level, WallSegment
+
+__all__ = ["level_weights", "wall_elevation_area", "wall_unit_load"]
+
+logger = logging.getLogger(__name__)
+
+WALLS_BELOW = "walls below"
+WALLS_ABOVE = "walls above"
+
+# breakdown row: (source, unit load [Pa], quantity [m²], weight [N], guids)
+_Row = tuple[str, float, float, float, Iterable[str]]
+
+
+@dataclass(frozen=True, slots=True, kw_only=True)
+class _WallShare:
+    """Part of one wall segment's weight that lands on one level."""
+
+    wall: WallSegment
+    source: str  # WALLS_BELOW or WALLS_ABOVE
+    area: float  # tributary elevation area [m²]
+    unit_load: float  # [Pa]
+
+    @property
+    def weight(self) -> float:
+        return self.area * self.unit_load
+
+
+def wall_elevation_area(wall: WallSegment) -> float:
+    """Net elevation area of a wall segment: length × height less its openings.
+
+    Common practice: openings are clipped to the segment's extent; overlapping
+    openings are not merged, and the result is never negative.
+
+    Args:
+        wall: The wall segment.
+
+    Returns:
+        Area [m²].
+    """
+    length, height = wall.length, wall.height
+    holes = 0.0
+    for o in wall.openings:
+        width = min(o.end, length) - max(o.start, 0.0)
+        tall = min(o.top, height) - max(o.bottom, 0.0)
+        if width > 0.0 and tall > 0.0:
+            holes += width * tall
+    return float(max(length * height - holes, 0.0))
+
+
+def wall_unit_load(
+    wall: WallSegment, loads: DeadLoads, options: AnalysisOptions
+) -> float:
+    """Dead load of a wall per elevation area.
+
+    Common practice: the assembly's own wall dead load where the configuration gives
+    one, else the project's general wall load.
+
+    Args:
+        wall: The wall segment.
+        loads: Project dead loads (``wall`` [Pa]).
+        options: Analysis options with the assembly properties.
+
+    Returns:
+        Load per wall elevation area [Pa].
+    """
+    props = options.assembly(wall.assembly) if wall.assembly else None
+    if props is not None and props.wall_dead_load is not None:
+        return float(props.wall_dead_load)
+    return float(loads.wall)
+
+
+def _base(model: BuildingModel, base_level: str) -> Level:
+    if not model.levels:
+        msg = f"{model.source}: the model has no levels; no seismic weight to compute"
+        raise ParameterError(msg)
+    if not base_level:
+        return model.levels[0]
+    try:
+        return model.level(base_level)
+    except KeyError:
+        names = ", ".join(repr(lv.name) for lv in model.levels)
+        msg = f"seismic.base_level = {base_level!r} is not a level; levels: {names}"
+        raise ParameterError(msg) from None
+
+
+def _diaphragm_levels(
+    model: BuildingModel, options: AnalysisOptions, base: Level
+) -> list[Level]:
+    above = [lv for lv in model.levels if lv.elevation > base.elevation]
+    if options.diaphragm_levels:
+        known = {lv.name: lv for lv in model.levels}
+        for name in options.diaphragm_levels:
+            if name not in known:
+                names = ", ".join(repr(lv.name) for lv in model.levels)
+                msg = (
+                    f"[levels].diaphragms names {name!r}, not a level; levels: {names}"
+                )
+                raise ParameterError(msg)
+            if known[name].elevation <= base.elevation:
+                msg = (
+                    f"[levels].diaphragms names {name!r}, at or below the seismic base "
+                    f"{base.name!r}; list only levels above the base"
+                )
+                raise ParameterError(msg)
+        chosen = [lv for lv in above if lv.name in set(options.diaphragm_levels)]
+    else:
+        chosen = [lv for lv in above if lv.is_diaphragm_level]
+    if not chosen:
+        msg = (
+            f"{model.source}: no diaphragm level above the seismic base {base.name!r}; "
+            "check the slabs or [levels].diaphragms"
+        )
+        raise ParameterError(msg)
+    return chosen
+
+
+def _target(
+    name: str, model: BuildingModel, base: Level, diaphragms: Sequence[Level], wall: str
+) -> str | None:
+    """Diaphragm level that receives weight landing on level ``name``, or None."""
+    try:
+        lv = model.level(name)
+    except KeyError:
+        msg = f"wall {wall}: level {name!r} is not a level of {model.source}"
+        raise ParameterError(msg) from None
+    if lv.elevation <= base.elevation:
+        return None
+    if any(d.name == name for d in diaphragms):
+        return name
+    nearest = min(diaphragms, key=lambda d: (abs(d.elevation - lv.elevation), -d.index))
+    logger.info(
+        "wall %s: weight on level %r (no diaphragm) goes to level %r",
+        wall,
+        name,
+        nearest.name,
+    )
+    return nearest.name
+
+
+def _wall_shares(
+    model: BuildingModel,
+    loads: DeadLoads,
+    options: AnalysisOptions,
+    base: Level,
+    diaphragms: Sequence[Level],
+) -> dict[str, list[_WallShare]]:
+    shares: dict[str, list[_WallShare]] = defaultdict(list)
+    for w in model.walls:
+        area, q = wall_elevation_area(w), wall_unit_load(w, loads, options)
+        if w.level:
+            parts = ((w.storey, WALLS_ABOVE, 0.5), (w.level, WALLS_BELOW, 0.5))
+        else:  # nothing above: a parapet's whole weight to the level it stands on
+            parts = ((w.storey, WALLS_ABOVE, 1.0),)
+        for name, source, fraction in parts:
+            target = _target(name, model, base, diaphragms, w.guid)
+            if target is not None:
+                share = _WallShare(
+                    wall=w, source=source, area=fraction * area, unit_load=q
+                )
+                shares[target].append(share)
+    return shares
+
+
+def _extras(
+    loads: DeadLoads, model: BuildingModel, diaphragms: Sequence[Level]
+) -> dict[str, float]:
+    names = {lv.name for lv in diaphragms}
+    out: dict[str, float] = defaultdict(float)
+    for name, weight in loads.extra:
+        if name not in names:
+            listed = ", ".join(repr(n) for n in sorted(names))
+            known = any(lv.name == name for lv in model.levels)
+            where = (
+                "not a diaphragm level above the seismic base"
+                if known
+                else ("not a level of the model")
+            )
+            msg = f"loads.extra.{name}: {where}; diaphragm levels: {listed}"
+            raise ParameterError(msg)
+        out[name] += weight
+    return out
+
+
+def _grouped(items: Iterable[_Row]) -> list[WeightItem]:
+    """Sum (source, unit_load, quantity, weight, guids) rows by source and unit load."""
+    groups: dict[tuple[str, float], list[tuple[float, float, Iterable[str]]]] = {}
+    for source, q, quantity, weight, guids in items:
+        groups.setdefault((source, q), []).append((quantity, weight, guids))
+    out = []
+    for (source, q), rows in groups.items():
+        out.append(
+            WeightItem(
+                source=source,
+                quantity=math.fsum(r[0] for r in rows),
+                unit_load=q,
+                weight=math.fsum(r[1] for r in rows),
+                guids=tuple(sorted({g for r in rows for g in r[2]})),
+            )
+        )
+    return out
+
+
+def _slab_parts(
+    model: BuildingModel, level: str, loads: DeadLoads
+) -> tuple[list[_Row], list[MassItem]]:
+    rows: list[_Row] = []
+    masses: list[MassItem] = []
+    for d in model.diaphragms_of(level):
+        is_roof = d.kind.upper() == "ROOF"
+        q = loads.roof if is_roof else loads.floor
+        weight = d.area * q
+        rows.append(("roof" if is_roof else "floor", q, d.area, weight, d.slab_guids))
+        if weight > 0.0:
+            c = d.polygon.centroid
+            masses.append(
+                MassItem(
+                    source="slab",
+                    ref=d.id,
+                    weight=float(weight),
+                    location=(float(c.x), float(c.y)),
+                    polygon=d.polygon,
+                )
+            )
+    return rows, masses
+
+
+def _wall_masses(shares: Sequence[_WallShare]) -> list[MassItem]:
+    """One point item per wall segment (both halves merged when they land here)."""
+    by_segment: dict[tuple[str, int], list[_WallShare]] = {}
+    for s in shares:
+        by_segment.setdefault((s.wall.guid, s.wall.part), []).append(s)
+    out = []
+    for (guid, part), group in by_segment.items():
+        weight = math.fsum(s.weight for s in group)
+        if weight > 0.0:
+            out.append(
+                MassItem(
+                    source="wall",
+                    ref=guid,
+                    weight=float(weight),
+                    location=group[0].wall.midpoint,
+                    pier_part=part,
+                )
+            )
+    return out
+
+
+def _extra_masses(
+    model: BuildingModel, level: Level, extra: float, located: Sequence[MassItem]
+) -> list[MassItem]:
+    """Extra weight over the diaphragms by area; without any, at the walls' centre."""
+    if extra <= 0.0:
+        return []
+    regions = model.diaphragms_of(level.name)
+    if regions:
+        total = math.fsum(d.area for d in regions)
+        out = []
+        for d in regions:
+            c = d.polygon.centroid
+            out.append(
+                MassItem(
+                    source="extra",
+                    ref=d.id,
+                    weight=float(extra * d.area / total),
+                    location=(float(c.x), float(c.y)),
+                    polygon=d.polygon,
+                )
+            )
+        return out
+    if not located:
+        msg = (
+            f"level {level.name!r} (GUID {level.guid}): loads.extra has no diaphragm "
+            "or wall to locate it on; check the slabs or [levels].diaphragms"
+        )
+        raise ParameterError(msg)
+    logger.info(
+        "level %r: no diaphragm; extra weight placed at the walls' centre", level.name
+    )
+    return [
+        MassItem(
+            source="extra", ref="", weight=float(extra), location=_centroid(located)
+        )
+    ]
+
+
+def _centroid(masses: Sequence[MassItem]) -> tuple[float, float]:
+    total = math.fsum(m.weight for m in masses)
+    x = math.fsum(m.weight * m.location[0] for m in masses) / total
+    y = math.fsum(m.weight * m.location[1] for m in masses) / total
+    return (float(x), float(y))
+
+
+def _level_load(
+    model: BuildingModel,
+    level: Level,
+    *,
+    base: Level,
+    loads: DeadLoads,
+    shares: Sequence[_WallShare],
+    extra: float,
+) -> LevelLoad:
+    rows, masses = _slab_parts(model, level.name, loads)
+    rows += [(s.source, s.unit_load, s.area, s.weight, (s.wall.guid,)) for s in shares]
+    masses += _wall_masses(shares)
+    masses += _extra_masses(model, level, extra, masses)
+    breakdown = _grouped(rows)
+    if extra > 0.0:
+        breakdown.append(
+            WeightItem(source="extra", quantity=0.0, unit_load=0.0, weight=extra)
+        )
+    seismic_weight = math.fsum(item.weight for item in breakdown)
+    if not seismic_weight > 0.0:
+        msg = (
+            f"level {level.name!r} (GUID {level.guid}) has no seismic weight: no "
+            "slabs, walls or extra weight; check the slabs or [levels].diaphragms"
+        )
+        raise ParameterError(msg)
+    return LevelLoad(
+        level=level.name,
+        guid=level.guid,
+        elevation=level.elevation,
+        height=float(level.elevation - base.elevation),
+        seismic_weight=float(seismic_weight),
+        breakdown=tuple(breakdown),
+        mass_centroid=_centroid(masses),
+        masses=tuple(masses),
+    )
+
+
+def level_weights(
+    model: BuildingModel,
+    loads: DeadLoads,
+    options: AnalysisOptions,
+    *,
+    base_level: str = "",
+) -> tuple[LevelLoad, ...]:
+    """Seismic weight of every diaphragm level above the seismic base.
+
+    ASCE 7-16 §12.7.2 (effective seismic weight: dead load above the base, plus the
+    extras the user gives for partitions, equipment and snow). Common practice for the
+    take-off from the model: see the module docstring.
+
+    Args:
+        model: Structural model (levels, diaphragms, wall segments) [m].
+        loads: Dead loads: floor and roof per plan area, wall per elevation area [Pa],
+            extra weight per level [N].
+        options: Analysis options: assembly wall loads and the diaphragm levels.
+        base_level: Name of the seismic base level; ``""`` for the lowest level.
+
+    Returns:
+        One ``LevelLoad`` per diaphragm level, bottom up, with ``seismic_weight`` [N],
+        its ``breakdown``, the height above the base [m], the located ``masses`` and
+        their centroid [m]; forces are left at zero.
+
+    Raises:
+        ParameterError: An unknown base or diaphragm level name, extra weight for a
+            level that is not a diaphragm level, or a level with no seismic weight.
+    """
+    base = _base(model, base_level)
+    diaphragms = _diaphragm_levels(model, options, base)
+    shares = _wall_shares(model, loads, options, base, diaphragms)
+    extras = _extras(loads, model, diaphragms)
+    return tuple(
+        _level_load(
+            model,
+            lv,
+            base=base,
+            loads=loads,
+            shares=shares.get(lv.name, ()),
+            extra=extras.get(lv.name, 0.0),
+        )
+        for lv in diaphragms
+    )
