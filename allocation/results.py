@@ -63,6 +63,7 @@ class ConditionKind(StrEnum):
     NO_SHEAR_WALLS = "no_shear_walls"  # a story with no shear wall at all
     TORSIONAL_INSTABILITY = "torsional_instability"  # rigid: no torsional stiffness
     WALL_OFF_DIAPHRAGM = "wall_off_diaphragm"  # shear wall not under any diaphragm
+    NO_PIER = "no_pier"  # shear wall whose openings leave no full-height pier
     STIFFNESS_FALLBACK = "stiffness_fallback"  # assembly stiffness inputs missing: length used
 
 

@@ -31,11 +31,18 @@ from dataclasses import dataclass
 import numpy as np
 from numpy.typing import NDArray
 
+from allocation.asce7_16 import s12_8_torsion
 from allocation.errors import ParameterError
 from allocation.results import Condition, ConditionKind, LoadCase, Pier, RigidResult
 from ifc_bridge.model import Direction
 
-__all__ = ["allocate_rigid", "allocate_rigid_story", "rigid_cases"]
+__all__ = ["DRIFT_RATIO_LIMIT", "allocate_rigid", "allocate_rigid_story", "rigid_cases"]
+
+DRIFT_RATIO_LIMIT = 100.0
+"""Largest reported δmax/δavg [-]. Where the diaphragm's mid-point moves against the
+force (δavg <= 0, the plan turns about a point inside it) or J = 0 under torsion the
+ratio is unbounded and reported as this; Type 1b (> 1.4) and Ax = 3 (ratio >= 2.08)
+are reached far below it."""
 
 _IRREGULAR_RATIO = 1.2  # ASCE 7-16 Table 12.3-1, Type 1a
 _REL_TOL = 1e-12  # zero test for J and arms, relative to the plan scale
@@ -50,9 +57,9 @@ class _Rigidity:
     ky: NDArray[np.float64]
     x: NDArray[np.float64]  # mid-points [m]
     y: NDArray[np.float64]
-    xcr: float
+    xcr: float  # centre of rigidity [m]
     ycr: float
-    J: float
+    J: float  # torsional stiffness about the CR [stiffness·m²]
     scale: float  # plan length scale for zero tests [m]
 
     def total(self, direction: Direction) -> float:
@@ -61,7 +68,8 @@ class _Rigidity:
     @property
     def torsionally_unstable(self) -> bool:
         k_all = float(self.kx.sum() + self.ky.sum())
-        return self.J <= _REL_TOL * k_all * self.scale**2
+        tolerance = _REL_TOL * k_all * self.scale**2
+        return tolerance >= self.J
 
 
 def rigid_cases(direction: Direction) -> tuple[LoadCase, ...]:
@@ -103,12 +111,18 @@ def _validate(
     xmin, ymin, xmax, ymax = plan_extent
     checks = (
         (story_shear >= 0, f"story_shear = {story_shear} N must be >= 0"),
-        (xmax >= xmin and ymax >= ymin,
-         f"plan_extent = {plan_extent} must be (xmin, ymin, xmax, ymax)"),
-        (case.sign in (1, -1) and case.ecc_sign in (1, -1),
-         f"load case {case} needs sign and ecc_sign of +1 or -1"),
-        (0 <= accidental_eccentricity < 0.5,
-         f"accidental_eccentricity = {accidental_eccentricity} must be in [0, 0.5)"),
+        (
+            xmax >= xmin and ymax >= ymin,
+            f"plan_extent = {plan_extent} must be (xmin, ymin, xmax, ymax)",
+        ),
+        (
+            case.sign in (1, -1) and case.ecc_sign in (1, -1),
+            f"load case {case} needs sign and ecc_sign of +1 or -1",
+        ),
+        (
+            0 <= accidental_eccentricity < 0.5,
+            f"accidental_eccentricity = {accidental_eccentricity} must be in [0, 0.5)",
+        ),
         (math.isfinite(Ax) and 1.0 <= Ax <= 3.0, f"Ax = {Ax} must be in [1, 3]"),
     )
     for ok, text in checks:
@@ -124,11 +138,11 @@ def _rigidity(
     center_of_mass: tuple[float, float],
     plan_extent: tuple[float, float, float, float],
 ) -> _Rigidity:
-    """CR and J of the level's X and Y piers; a missing direction puts the CR at the CM."""
+    """CR and J of the level's X and Y piers (no piers in a direction: CR at CM)."""
     active = tuple(p for p in piers if p.level == level and p.direction is not None)
     for p in active:
         if not (math.isfinite(p.stiffness) and p.stiffness >= 0):
-            msg = f"rigid allocation: pier {p.id}: stiffness = {p.stiffness} must be >= 0"
+            msg = f"rigid allocation: pier {p.id}: stiffness {p.stiffness} must be >= 0"
             raise ParameterError(msg)
     k = np.array([p.stiffness for p in active], dtype=np.float64)
     is_x = np.array([p.direction is Direction.X for p in active], dtype=bool)
@@ -142,14 +156,9 @@ def _rigidity(
     spread = [xmax - xmin, ymax - ymin, 1e-9]
     if active:
         spread += [float(np.ptp(x)), float(np.ptp(y))]
-    return _Rigidity(piers=active, kx=kx, ky=ky, x=x, y=y, xcr=xcr, ycr=ycr, J=J,
-                     scale=max(spread))
-
-
-def _arm(rig: _Rigidity, direction: Direction) -> tuple[NDArray[np.float64], float]:
-    """Signed torsional lever per pier (force per unit θ per unit k) and the CR term."""
-    return (-(rig.y - rig.ycr), rig.ycr) if direction is Direction.X else (
-        rig.x - rig.xcr, rig.xcr)
+    return _Rigidity(
+        piers=active, kx=kx, ky=ky, x=x, y=y, xcr=xcr, ycr=ycr, J=J, scale=max(spread)
+    )
 
 
 def _drift_ratio(
@@ -163,8 +172,8 @@ def _drift_ratio(
 
     ASCE 7-16 Table 12.3-1 (Type 1a/1b) compares the larger end displacement with
     the average of the two ends. Displacements are signed along the force, so the
-    average is that of the diaphragm's mid-point; where it is <= 0 (the plan turns
-    about a point inside it) the ratio is ``inf``, an extreme irregularity.
+    average is that of the diaphragm's mid-point (signs kept, not zeroed); an
+    unbounded ratio is reported as ``DRIFT_RATIO_LIMIT``.
     """
     k_sum = rig.total(direction)
     if k_sum == 0:
@@ -175,23 +184,52 @@ def _drift_ratio(
     else:
         e, ends, cr, sense = load_offset - rig.xcr, (xmin, xmax), rig.xcr, 1.0
     if rig.torsionally_unstable:
-        return 1.0 if abs(e) <= _REL_TOL * rig.scale else math.inf
+        return 1.0 if abs(e) <= _REL_TOL * rig.scale else DRIFT_RATIO_LIMIT
     theta = sense * e / rig.J  # T = Fy·e or −Fx·e, unit force
     u = [1.0 / k_sum + sense * theta * (c - cr) for c in ends]
     avg = 0.5 * (u[0] + u[1])
-    if avg <= _REL_TOL * abs(1.0 / k_sum):
-        return math.inf
+    if avg * DRIFT_RATIO_LIMIT <= max(u):
+        return DRIFT_RATIO_LIMIT
     return float(max(u) / avg)
 
 
-def _condition(
-    kind: ConditionKind, level: str, direction: Direction, rig: _Rigidity,
-    detail: str, value: float,
-) -> Condition:
-    return Condition(
-        kind=kind, level=level, direction=direction,
-        guids=tuple(sorted({p.guid for p in rig.piers})), detail=detail, value=value,
-    )
+def _theta(
+    rig: _Rigidity, *, level: str, d: Direction, T: float, story_shear: float
+) -> tuple[float, tuple[Condition, ...]]:
+    """Rotation θ = T/J, or 0 with the condition that prevents it."""
+    guids = tuple(sorted({p.guid for p in rig.piers}))
+    if rig.total(d) == 0:
+        detail = (
+            f"level {level}: no shear wall resists {d.value}; the rigid analysis "
+            f"cannot carry the story shear {story_shear:.6g} N"
+        )
+        return 0.0, (
+            Condition(
+                kind=ConditionKind.NO_LINE,
+                level=level,
+                direction=d,
+                guids=guids,
+                detail=detail,
+                value=float(story_shear),
+            ),
+        )
+    if rig.torsionally_unstable:
+        detail = (
+            f"level {level}: all shear walls act on one line; the rigid "
+            f"diaphragm has no torsional stiffness for torsion {T:.6g} N·m "
+            f"({d.value} force); direct shear only"
+        )
+        return 0.0, (
+            Condition(
+                kind=ConditionKind.TORSIONAL_INSTABILITY,
+                level=level,
+                direction=d,
+                guids=guids,
+                detail=detail,
+                value=abs(T),
+            ),
+        )
+    return T / rig.J, ()
 
 
 def allocate_rigid(
@@ -232,42 +270,29 @@ def allocate_rigid(
     Raises:
         ParameterError: An input is out of its domain.
     """
-    _validate(story_shear, center_of_mass, plan_extent, case, accidental_eccentricity, Ax)
+    _validate(
+        story_shear, center_of_mass, plan_extent, case, accidental_eccentricity, Ax
+    )
     d = case.direction
-    rig = _rigidity(piers, level=level, center_of_mass=center_of_mass,
-                    plan_extent=plan_extent)
+    rig = _rigidity(
+        piers, level=level, center_of_mass=center_of_mass, plan_extent=plan_extent
+    )
     xmin, ymin, xmax, ymax = plan_extent
-    width = (ymax - ymin) if d is Direction.X else (xmax - xmin)
-    acc1 = case.ecc_sign * accidental_eccentricity * width
-    cm = center_of_mass[1] if d is Direction.X else center_of_mass[0]
-    arm, cr = _arm(rig, d)
+    is_x = d is Direction.X
+    acc1 = (
+        case.ecc_sign
+        * accidental_eccentricity
+        * ((ymax - ymin) if is_x else (xmax - xmin))
+    )
+    cm, cr = (center_of_mass[1], rig.ycr) if is_x else (center_of_mass[0], rig.xcr)
     F = float(case.sign * story_shear)
     e = cm + Ax * acc1 - cr
-    T = F * e * (-1.0 if d is Direction.X else 1.0)
-    k_d = rig.kx if d is Direction.X else rig.ky
-    k_sum = rig.total(d)
-    conditions: list[Condition] = []
+    T = -F * e if is_x else F * e
+    k_d, k_sum = (rig.kx if is_x else rig.ky), rig.total(d)
     direct = k_d / k_sum * F if k_sum > 0 else np.zeros_like(k_d)
-    theta = 0.0
-    if k_sum == 0:
-        detail = (f"level {level}: no shear wall resists {d.value}; the rigid analysis "
-                  f"cannot carry the story shear {story_shear:.6g} N")
-        conditions.append(_condition(ConditionKind.NO_LINE, level, d, rig, detail,
-                                     float(story_shear)))
-    elif rig.torsionally_unstable:
-        detail = (f"level {level}: all shear walls act on one line; the rigid "
-                  f"diaphragm has no torsional stiffness for torsion {T:.6g} N·m "
-                  f"({d.value} force); direct shear only")
-        conditions.append(_condition(ConditionKind.TORSIONAL_INSTABILITY, level, d,
-                                     rig, detail, abs(T)))
-    else:
-        theta = T / rig.J
-    k_all = rig.kx + rig.ky
-    x_arm, y_arm = rig.x - rig.xcr, -(rig.y - rig.ycr)
-    torsional = theta * k_all * np.where(rig.kx > 0, y_arm, x_arm)
-    total = direct + torsional
+    theta, conditions = _theta(rig, level=level, d=d, T=T, story_shear=story_shear)
+    total = direct + theta * (rig.kx * -(rig.y - rig.ycr) + rig.ky * (rig.x - rig.xcr))
     ids = [p.id for p in rig.piers]
-    del arm  # the lever of the force-direction piers is inside x_arm / y_arm
     return RigidResult(
         level=level,
         case=case,
@@ -281,7 +306,59 @@ def allocate_rigid(
         J=rig.J,
         pier_forces={i: float(v) for i, v in zip(ids, total, strict=True)},
         pier_direct={i: float(v) for i, v in zip(ids, direct, strict=True)},
-        drift_ratio_max=_drift_ratio(rig, direction=d, load_offset=cm + acc1,
-                                     plan_extent=plan_extent),
-        conditions=tuple(conditions),
+        drift_ratio_max=_drift_ratio(
+            rig, direction=d, load_offset=cm + acc1, plan_extent=plan_extent
+        ),
+        conditions=conditions,
     )
+
+
+def allocate_rigid_story(
+    piers: Sequence[Pier],
+    *,
+    level: str,
+    story_shear: float,
+    center_of_mass: tuple[float, float],
+    plan_extent: tuple[float, float, float, float],
+    direction: Direction,
+    accidental_eccentricity: float,
+    amplify_torsion: bool,
+) -> tuple[RigidResult, ...]:
+    """The four rigid-diaphragm cases of one story and direction, Ax where required.
+
+    ASCE 7-16 §12.8.4.2 (±5 % eccentricity) and §12.8.4.3 (Ax, Eq. 12.8-14, where
+    Type 1a or 1b torsional irregularity of Table 12.3-1 exists).
+
+    Each case is first run with Ax = 1; when ``amplify_torsion`` and its drift ratio
+    exceeds 1.2 it is run again with Ax from that ratio (per case: the two senses of
+    the eccentricity give different ratios).
+
+    Args:
+        piers: Piers with ``stiffness`` set [m].
+        level: Level whose diaphragm the story's piers support.
+        story_shear: Story shear Vx, ASCE 7-16 Eq. 12.8-13 [N].
+        center_of_mass: Of the levels at and above (x, y) [m].
+        plan_extent: (xmin, ymin, xmax, ymax) of the level's diaphragm [m].
+        direction: Direction of the force.
+        accidental_eccentricity: Fraction of the plan dimension, §12.8.4.2 [-].
+        amplify_torsion: Apply Ax (the caller decides, e.g. SDC C-F).
+
+    Returns:
+        Results of the cases of ``rigid_cases(direction)``, in that order.
+    """
+    out = []
+    for case in rigid_cases(direction):
+        kwargs = {
+            "level": level,
+            "story_shear": story_shear,
+            "center_of_mass": center_of_mass,
+            "plan_extent": plan_extent,
+            "case": case,
+            "accidental_eccentricity": accidental_eccentricity,
+        }
+        result = allocate_rigid(piers, **kwargs)
+        ratio = result.drift_ratio_max
+        if amplify_torsion and ratio > _IRREGULAR_RATIO:
+            result = allocate_rigid(piers, **kwargs, Ax=s12_8_torsion.Ax(ratio, 1.0))
+        out.append(result)
+    return tuple(out)

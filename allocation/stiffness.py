@@ -160,8 +160,10 @@ def sdpws_stiffness(
 def _missing_inputs(pier: Pier, props: AssemblyProperties | None) -> str:
     """What the pier's assembly model lacks, or ``""`` when it can be evaluated."""
     if props is None:
-        return f"assembly '{pier.assembly}' is not defined" if pier.assembly else (
-            "no assembly assigned"
+        return (
+            f"assembly '{pier.assembly}' is not defined"
+            if pier.assembly
+            else ("no assembly assigned")
         )
     if pier.height <= 0 or pier.length <= 0:
         return "pier height or length is not > 0"
@@ -207,16 +209,22 @@ def _assign_level(
     """Stiffness of one level's piers on one basis, with the fallback condition."""
     props = [options.assembly(p.assembly) for p in piers]
     missing = [_missing_inputs(p, a) for p, a in zip(piers, props, strict=True)]
-    lacking = [p for p, m in zip(piers, missing, strict=True)
-               if p.direction is not None and m]
+    lacking = [
+        p for p, m in zip(piers, missing, strict=True) if p.direction is not None and m
+    ]
     if not lacking:
         out = [
             replace(p, stiffness=0.0 if m else _assembly_stiffness(p, a))
             for p, a, m in zip(piers, props, missing, strict=True)
         ]
         return out, None
-    reasons = sorted({m for p, m in zip(piers, missing, strict=True)
-                      if p.direction is not None and m})
+    reasons = sorted(
+        {
+            m
+            for p, m in zip(piers, missing, strict=True)
+            if p.direction is not None and m
+        }
+    )
     detail = (
         f"level {level}: wall stiffness from length for all its piers, because "
         f"{len(lacking)} pier(s) cannot use analysis.wall_stiffness = 'assembly': "

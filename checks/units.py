@@ -23,6 +23,7 @@ __all__ = [
     "Q_",
     "format_value",
     "parse_quantity",
+    "show_value",
     "to_display",
     "ureg",
 ]
@@ -75,6 +76,14 @@ DISPLAY_QUANTITIES: Final[dict[str, tuple[str, tuple[str, str], tuple[str, str]]
 }
 
 
+def show_value(value: object, limit: int = 60) -> str:
+    """A short one-line ``repr`` of a config value for error messages."""
+    if isinstance(value, int) and not isinstance(value, bool) and abs(value) > 10**18:
+        return "<a very large integer>"
+    text = repr(value).replace("\n", " ")
+    return text if len(text) <= limit else text[: limit - 3] + "..."
+
+
 def _describe(units: pint.Unit) -> tuple[str, str]:
     dim = units.dimensionality
     if dim in _DIMENSIONS:
@@ -89,12 +98,12 @@ def _describe(units: pint.Unit) -> tuple[str, str]:
 
 def _parse_units(text: str, unit_text: str, *, where: str) -> pint.Unit:
     if _POWER_CHAIN.search(unit_text):
-        msg = f"{where} = {text!r}: nested powers in the unit are not supported"
+        msg = f"{where} = {show_value(text)}: nested powers in the unit are not supported"
         raise ConfigError(msg)
     try:
         return ureg.parse_units(unit_text.strip())
     except Exception as exc:  # pint raises many types (TokenError, AssertionError, ...)
-        msg = f"{where} = {text!r}: cannot read the unit {unit_text.strip()!r} ({exc})"
+        msg = f"{where} = {show_value(text)}: cannot read the unit {unit_text.strip()!r} ({exc})"
         raise ConfigError(msg.replace("\n", " ")) from exc
 
 
@@ -123,25 +132,25 @@ def parse_quantity(
     target = ureg.parse_units(expected_dimension_units)
     want, example = _describe(target)
     if isinstance(text, bool) or not isinstance(text, int | float | str):
-        msg = f"{where} = {text!r}: expected a quantity string such as {example}"
+        msg = f"{where} = {show_value(text)}: expected a quantity string such as {example}"
         raise ConfigError(msg)
     if not isinstance(text, str):
-        msg = f"{where} = {text!r}: has no unit; write e.g. {example}"
+        msg = f"{where} = {show_value(text)}: has no unit; write e.g. {example}"
         raise ConfigError(msg)
     if len(text) > _MAX_TEXT:
-        msg = f"{where} = {text[:_MAX_TEXT]!r}...: too long for a quantity"
+        msg = f"{where} = {show_value(text)}: too long for a quantity"
         raise ConfigError(msg)
     found = _NUMBER.fullmatch(text)
     if found is None:
-        msg = f"{where} = {text!r}: cannot read it; write a number and a unit, e.g. {example}"
+        msg = f"{where} = {show_value(text)}: cannot read it; write a number and a unit, e.g. {example}"
         raise ConfigError(msg)
     magnitude = float(found.group(1))
     if not math.isfinite(magnitude):
-        msg = f"{where} = {text!r}: not a finite number; write e.g. {example}"
+        msg = f"{where} = {show_value(text)}: not a finite number; write e.g. {example}"
         raise ConfigError(msg)
     unit_text = found.group(2)
     if not unit_text.strip():
-        msg = f"{where} = {text!r}: has no unit; write e.g. {example}"
+        msg = f"{where} = {show_value(text)}: has no unit; write e.g. {example}"
         raise ConfigError(msg)
     units = _parse_units(text, unit_text, where=where)
     return _convert(magnitude, units, target, text=text, where=where)
@@ -156,15 +165,15 @@ def _convert(
     wrong_angle = is_angle_target and got != "an angle"
     if units.dimensionality != target.dimensionality or wrong_angle:
         hint = " (write 'lbf' or 'kip' for a force)" if got == "a mass" else ""
-        msg = f"{where} = {text!r}: that is {got}, expected {want} such as {example}{hint}"
+        msg = f"{where} = {show_value(text)}: that is {got}, expected {want} such as {example}{hint}"
         raise ConfigError(msg)
     try:
         value = float(Q_(magnitude, units).m_as(target))
     except (pint.PintError, ArithmeticError, ValueError) as exc:
-        msg = f"{where} = {text!r}: cannot convert it to {target} ({exc})"
+        msg = f"{where} = {show_value(text)}: cannot convert it to {target} ({exc})"
         raise ConfigError(msg.replace("\n", " ")) from exc
     if not math.isfinite(value):
-        msg = f"{where} = {text!r}: not a finite quantity; write e.g. {example}"
+        msg = f"{where} = {show_value(text)}: not a finite quantity; write e.g. {example}"
         raise ConfigError(msg)
     return value
 

@@ -11,6 +11,7 @@ revised model finds its own topics again.
 from __future__ import annotations
 
 import datetime as dt
+import logging
 import uuid
 from collections.abc import Sequence
 from dataclasses import dataclass
@@ -39,6 +40,8 @@ TOOL_LABEL = "shearline"  # first label of every topic this tool writes
 PRIORITY = {Severity.ERROR: "High", Severity.WARNING: "Normal", Severity.INFO: "Low"}
 TOPIC_TYPE = {Severity.ERROR: "Error", Severity.WARNING: "Warning", Severity.INFO: "Info"}
 SNAPSHOT_SIZE = (800, 600)  # [px]
+
+logger = logging.getLogger(__name__)
 
 
 def as_utc(when: dt.datetime | None) -> dt.datetime:
@@ -327,7 +330,8 @@ def topics_from_findings(
     topics = []
     for f in findings:
         if f.id in seen:
-            continue  # the same finding twice is one topic
+            logger.warning("finding %s given twice; written as one topic", f.id)
+            continue
         seen.add(f.id)
         topics.append(topic_from_finding(f, model=model, author=author, now=now))
     return Topics(

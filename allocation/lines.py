@@ -1,0 +1,279 @@
+"""Lines of resistance: piers parallel to a direction grouped by perpendicular offset.
+
+Axes: plan X-Y [m]. A line acting in X (walls parallel to X) has its ``offset`` in y and
+runs along x; a line acting in Y has its offset in x and runs along y. "Along" below means
+x for an X line and y for a Y line.
+
+Grouping is single-linkage along the sorted pier offsets: a pier joins the current line
+when its offset is within ``line_tolerance`` of the previous pier's offset, so a line's
+total spread may exceed the tolerance when many piers step a little each (common
+practice: the engineer's tolerance is on the gap between neighbouring walls).
+
+A line supports a diaphragm region over each full crossing (chord) of the region that
+its walls physically cut: of the chords of the infinite line at the offset (holes
+excluded), those that overlap the walls' extent. Where the walls stop short of the
+chord, collectors are assumed (DESIGN.md item 5). When the walls sit just outside the
+slab edge, the chord is taken at the nearest slab edge within ``line_tolerance``.
+"""
+
+from __future__ import annotations
+
+import dataclasses
+from collections.abc import Iterable, Sequence
+from dataclasses import dataclass
+
+from shapely.geometry import LineString, Polygon
+
+from allocation.parameters import AnalysisOptions
+from allocation.results import Condition, ConditionKind, Pier, ResistanceLine
+from ifc_bridge.model import Diaphragm, Direction
+
+__all__ = ["Crossing", "along", "find_lines", "line_crossing", "perpendicular"]
+
+_EPS = 1e-9  # [m] geometric coincidence
+
+
+@dataclass(frozen=True, slots=True, kw_only=True)
+class Crossing:
+    """Where a line supports one diaphragm region.
+
+    Attributes:
+        diaphragm: Diaphragm id.
+        offset: Perpendicular coordinate of the chord(s) [m]; the line's offset, or
+            the nearest slab edge within the tolerance when the walls are just off it.
+        segments: Chords as ``(start, end)`` along-line coordinates, sorted [m].
+    """
+
+    diaphragm: str
+    offset: float
+    segments: tuple[tuple[float, float], ...]
+
+    @property
+    def length(self) -> float:
+        """Total chord length [m]."""
+        return float(sum(b - a for a, b in self.segments))
+
+
+def perpendicular(point: tuple[float, float], direction: Direction) -> float:
+    """Coordinate across a line acting in ``direction``: y for X, x for Y [m]."""
+    return float(point[1] if direction is Direction.X else point[0])
+
+
+def along(point: tuple[float, float], direction: Direction) -> float:
+    """Coordinate along a line acting in ``direction``: x for X, y for Y [m]."""
+    return float(point[0] if direction is Direction.X else point[1])
+
+
+def _pier_span(pier: Pier, direction: Direction) -> tuple[float, float]:
+    a, b = along(pier.start, direction), along(pier.end, direction)
+    return (min(a, b), max(a, b))
+
+
+def _merge(intervals: Iterable[tuple[float, float]]) -> list[tuple[float, float]]:
+    out: list[list[float]] = []
+    for a, b in sorted(intervals):
+        if out and a <= out[-1][1] + _EPS:
+            out[-1][1] = max(out[-1][1], b)
+        else:
+            out.append([a, b])
+    return [(a, b) for a, b in out]
+
+
+def _chords(polygon: Polygon, direction: Direction, offset: float) -> list[tuple[float, float]]:
+    """Intervals along the line where the infinite line at ``offset`` meets the polygon."""
+    x0, y0, x1, y1 = polygon.bounds
+    if direction is Direction.X:
+        probe = LineString([(x0 - 1.0, offset), (x1 + 1.0, offset)])
+    else:
+        probe = LineString([(offset, y0 - 1.0), (offset, y1 + 1.0)])
+    hit = polygon.intersection(probe)
+    parts = getattr(hit, "geoms", [hit])
+    spans = []
+    for g in parts:
+        if g.geom_type == "LineString" and g.length > _EPS:
+            u = [along(c, direction) for c in g.coords]
+            spans.append((min(u), max(u)))
+    return _merge(spans)
+
+
+def _overlapping(
+    chords: list[tuple[float, float]], extent: tuple[float, float]
+) -> tuple[tuple[float, float], ...]:
+    e0, e1 = extent
+    return tuple((a, b) for a, b in chords if min(b, e1) - max(a, e0) > _EPS)
+
+
+def line_crossing(
+    line: ResistanceLine, diaphragm: Diaphragm, *, tolerance: float
+) -> Crossing | None:
+    """The chords of a diaphragm region that a line physically cuts, or None.
+
+    Common practice: a line supports the diaphragm over its full crossing of the
+    region, collectors carrying the force where the walls are shorter (DESIGN.md 5).
+
+    Args:
+        line: The line of resistance.
+        diaphragm: One diaphragm region (holes are excluded from the chords).
+        tolerance: Largest distance from the line to a slab edge that still counts as
+            the line standing at that edge [m] (``line_tolerance``).
+
+    Returns:
+        The crossing, or None when the line's walls cut no chord of the region.
+    """
+    poly, d = diaphragm.polygon, line.direction
+    found = _overlapping(_chords(poly, d, line.offset), line.wall_extent)
+    if found:
+        return Crossing(diaphragm=diaphragm.id, offset=float(line.offset), segments=found)
+    rings = [poly.exterior, *poly.interiors]
+    edges = sorted(
+        {perpendicular(c, d) for r in rings for c in r.coords},
+        key=lambda v: (abs(v - line.offset), v),
+    )
+    for v in edges:
+        if abs(v - line.offset) > tolerance:
+            break
+        found = _overlapping(_chords(poly, d, v), line.wall_extent)
+        if found:
+            return Crossing(diaphragm=diaphragm.id, offset=float(v), segments=found)
+    return None
+
+
+def _cluster(piers: list[Pier], direction: Direction, tol: float) -> list[list[Pier]]:
+    ordered = sorted(piers, key=lambda p: (perpendicular(p.midpoint, direction), p.id))
+    groups: list[list[Pier]] = []
+    last = None
+    for p in ordered:
+        off = perpendicular(p.midpoint, direction)
+        if groups and last is not None and off - last <= tol:
+            groups[-1].append(p)
+        else:
+            groups.append([p])
+        last = off
+    return groups
+
+
+def _covered(spans: list[tuple[float, float]], chords: Iterable[tuple[float, float]]) -> float:
+    total = 0.0
+    for a, b in chords:
+        for s0, s1 in spans:
+            total += max(0.0, min(b, s1) - max(a, s0))
+    return total
+
+
+def _make_line(
+    group: list[Pier],
+    regions: Sequence[Diaphragm],
+    *,
+    line_id: str,
+    level: str,
+    direction: Direction,
+    tolerance: float,
+) -> ResistanceLine:
+    group = sorted(group, key=lambda p: (_pier_span(p, direction), p.id))
+    wall_length = float(sum(p.length for p in group))
+    offset = sum(p.length * perpendicular(p.midpoint, direction) for p in group)
+    spans = [_pier_span(p, direction) for p in group]
+    line = ResistanceLine(
+        id=line_id,
+        level=level,
+        direction=direction,
+        offset=float(offset / wall_length),
+        piers=tuple(p.id for p in group),
+        wall_extent=(min(a for a, _ in spans), max(b for _, b in spans)),
+        wall_length=wall_length,
+    )
+    merged = _merge(spans)
+    crossings, collector = [], 0.0
+    for region in regions:
+        c = line_crossing(line, region, tolerance=tolerance)
+        if c is None:
+            continue
+        crossings.append((region.id, c.length))
+        collector += max(0.0, c.length - _covered(merged, c.segments))
+    return dataclasses.replace(
+        line, crossings=tuple(crossings), collector_length=float(collector)
+    )
+
+
+def find_lines(
+    piers: Sequence[Pier],
+    diaphragms: Sequence[Diaphragm],
+    *,
+    level: str,
+    level_index: int,
+    options: AnalysisOptions,
+) -> tuple[tuple[ResistanceLine, ...], tuple[Pier, ...], tuple[Condition, ...]]:
+    """Group the piers supporting one level into lines of resistance per direction.
+
+    Common practice (DESIGN.md item 5): walls parallel to a direction whose
+    perpendicular offsets lie within ``line_tolerance`` of each other form one line;
+    the line's offset is the length-weighted mean of its piers' mid-point offsets.
+
+    Args:
+        piers: Piers (any levels; only those with ``level == level`` and a direction
+            are grouped).
+        diaphragms: Diaphragm regions (only those of ``level`` are used).
+        level: Name of the level whose diaphragm the piers support.
+        level_index: ``Level.index`` of that level, for the line ids.
+        options: ``line_tolerance`` [m] is used.
+
+    Returns:
+        The lines (X first, each direction in increasing offset), the given piers in
+        the same order with ``line`` set for those grouped, and the conditions: a
+        direction with no line (``NO_LINE``) and a line that cuts no diaphragm region
+        of the level (``WALL_OFF_DIAPHRAGM``).
+    """
+    regions = [d for d in diaphragms if d.level == level]
+    slabs = tuple(sorted({g for d in regions for g in d.slab_guids}))
+    tol = options.line_tolerance
+    lines: list[ResistanceLine] = []
+    assigned: dict[str, str] = {}
+    conditions: list[Condition] = []
+    for direction in (Direction.X, Direction.Y):
+        mine = [p for p in piers if p.level == level and p.direction is direction]
+        groups = _cluster(mine, direction, tol)
+        if not groups:
+            conditions.append(_no_line(level, direction, slabs))
+        for n, group in enumerate(groups, start=1):
+            line_id = f"L{level_index}-{direction.value}-{n}"
+            line = _make_line(
+                group, regions, line_id=line_id, level=level, direction=direction,
+                tolerance=tol,
+            )
+            lines.append(line)
+            assigned.update({p.id: line.id for p in group})
+            if not line.crossings:
+                conditions.append(_off_diaphragm(line, group))
+    out = tuple(
+        dataclasses.replace(p, line=assigned[p.id]) if p.id in assigned else p
+        for p in piers
+    )
+    return tuple(lines), out, tuple(conditions)
+
+
+def _no_line(level: str, direction: Direction, slabs: tuple[str, ...]) -> Condition:
+    detail = (
+        f"level {level!r}: no line of shear walls resists force in {direction.value}; "
+        f"add shear walls parallel to {direction.value} under this diaphragm"
+    )
+    return Condition(
+        kind=ConditionKind.NO_LINE, level=level, direction=direction, guids=slabs,
+        detail=detail,
+    )
+
+
+def _off_diaphragm(line: ResistanceLine, group: list[Pier]) -> Condition:
+    axis = "y" if line.direction is Direction.X else "x"
+    detail = (
+        f"line {line.id} at {axis} = {line.offset:.3f} m: its walls cut no diaphragm "
+        f"region of level {line.level!r}; they support no slab"
+    )
+    return Condition(
+        kind=ConditionKind.WALL_OFF_DIAPHRAGM,
+        level=line.level,
+        direction=line.direction,
+        guids=tuple(sorted({p.guid for p in group})),
+        detail=detail,
+        value=line.wall_length,
+        ref=line.id,
+    )

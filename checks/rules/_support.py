@@ -1,0 +1,97 @@
+"""Small look-ups the rules share: forces per pier, level records, GUIDs of a line.
+
+Axes: a line acting in X lies along X at a perpendicular offset y; a line acting in Y
+lies along Y at offset x. ``perp(direction)`` is the index of the offset coordinate,
+``along(direction)`` the index of the coordinate along the line.
+"""
+
+from __future__ import annotations
+
+from collections.abc import Iterable
+
+from allocation.results import Allocation, LevelLoad, Pier, ResistanceLine
+from checks.project import ProjectConfig
+from checks.units import format_value
+from ifc_bridge.model import BuildingModel, Direction, IfcGuid
+
+__all__ = [
+    "along",
+    "fmt",
+    "level_guids",
+    "level_load",
+    "line_guids",
+    "perp",
+    "pier_force",
+    "piers_by_id",
+    "unique_sorted",
+]
+
+
+def perp(direction: Direction) -> int:
+    """Index (0 = x, 1 = y) of the coordinate perpendicular to a line acting in ``direction``."""
+    return 1 if direction is Direction.X else 0
+
+
+def along(direction: Direction) -> int:
+    """Index (0 = x, 1 = y) of the coordinate along a line acting in ``direction``."""
+    return 0 if direction is Direction.X else 1
+
+
+def fmt(value: float, quantity: str, config: ProjectConfig) -> str:
+    """An SI value in the project's display units (``"260 plf"``), for descriptions."""
+    return format_value(value, quantity, config.display_units)
+
+
+def piers_by_id(allocation: Allocation) -> dict[str, Pier]:
+    """Piers keyed by their id."""
+    return {p.id: p for p in allocation.piers}
+
+
+def pier_force(allocation: Allocation, pier_id: str) -> float:
+    """Governing in-plane shear of a pier, QE [N] (magnitude).
+
+    Common practice: the envelope of the flexible and rigid results; where the
+    allocation has no envelope entry, the largest magnitude over every result.
+    """
+    env = allocation.envelope.get(pier_id)
+    if env is not None:
+        return float(abs(env.envelope))
+    forces = [abs(r.pier_forces[pier_id]) for r in allocation.flexible if pier_id in r.pier_forces]
+    forces += [abs(r.pier_forces[pier_id]) for r in allocation.rigid if pier_id in r.pier_forces]
+    return float(max(forces, default=0.0))
+
+
+def level_load(allocation: Allocation, level: str) -> LevelLoad | None:
+    """Load record of a diaphragm level, or None."""
+    for lv in allocation.levels:
+        if lv.level == level:
+            return lv
+    return None
+
+
+def level_guids(
+    allocation: Allocation, level: str, model: BuildingModel | None = None
+) -> tuple[IfcGuid, ...]:
+    """GlobalId of the level's IfcBuildingStorey as a 1-tuple (or ``()`` if unknown)."""
+    lv = level_load(allocation, level)
+    if lv is not None and lv.guid:
+        return (lv.guid,)
+    if model is not None:
+        for name, guid in model.storey_guids:
+            if name == level:
+                return (guid,)
+        for lvl in model.levels:
+            if lvl.name == level:
+                return (lvl.guid,)
+    return ()
+
+
+def line_guids(allocation: Allocation, line: ResistanceLine) -> tuple[IfcGuid, ...]:
+    """Sorted GlobalIds of the walls of a line."""
+    by_id = piers_by_id(allocation)
+    return unique_sorted(by_id[p].guid for p in line.piers if p in by_id)
+
+
+def unique_sorted(guids: Iterable[IfcGuid]) -> tuple[IfcGuid, ...]:
+    """Sorted tuple of distinct, non-empty GlobalIds."""
+    return tuple(sorted({g for g in guids if g}))

@@ -1,0 +1,331 @@
+"""Diaphragm demands: unit shear at each line, chord forces, collector forces, aspect ratio.
+
+Diaphragm forces use Fpx (ASCE 7-16 §12.10.1.1): the flexible (tributary) share each
+diaphragm piece delivers to a line is scaled by Fpx/Fx of its level; transfer forces
+from non-stacking walls above are added unscaled. Shears of walls that stack on a line
+below pass straight down and put no shear in the diaphragm.
+
+* Unit shear at a line: the larger of the reactions delivered from either side of the
+  line, over the line's crossing length of that diaphragm, times the combination factor
+  (0.7 ASD, §2.4.5; ρ = 1.0 for Eq. 12.10-1 forces, §12.3.4.1).
+* Chords (common practice, simple beam under uniform load): M = F·L/8 between two lines,
+  M = F·L/2 for a cantilevered piece; chord force M/d with d = piece area / span (the
+  mean depth along the force).
+* Collectors: unit shear delivered along the line × the line's collector length, times
+  Ω0 in SDC C–F (§12.10.2.1, item 2: Fpx forces with overstrength). SDC from
+  :mod:`seismic_design_category`; D is assumed where no spectral values are given.
+* Aspect ratio span/depth of each piece between two lines against 4:1 (blocked wood
+  structural panels, AWC SDPWS-2015 §4.2.4, from memory): the config does not yet say
+  what the diaphragm is made of, so this is a warning.
+
+Severity policy: demands are info (no diaphragm capacity in the config yet); an aspect
+ratio over 4:1 is a warning.
+"""
+
+from __future__ import annotations
+
+from collections import defaultdict
+from dataclasses import dataclass
+
+from shapely.geometry import Point
+
+from allocation.results import Allocation, DiaphragmPiece, FlexibleResult, ResistanceLine
+from checks.findings import Finding, Severity
+from checks.project import ProjectConfig
+from checks.rules._support import fmt, level_guids, level_load, line_guids, perp, unique_sorted
+from checks.rules.asce7_16.load_combinations import seismic_factor
+from checks.rules.asce7_16.seismic_design_category import seismic_design_category
+from ifc_bridge.model import BuildingModel, Direction
+
+__all__ = [
+    "Chord",
+    "Collector",
+    "DiaphragmDemands",
+    "LineShear",
+    "check_diaphragm",
+    "diaphragm_demands",
+]
+
+RULE = "diaphragm"
+ASPECT_LIMIT = 4.0  # AWC SDPWS-2015 §4.2.4, blocked wood structural panels, from memory
+
+
+@dataclass(frozen=True, slots=True, kw_only=True)
+class LineShear:
+    """Diaphragm unit shear where one diaphragm meets one line.
+
+    Attributes:
+        line: Line id.  diaphragm: Diaphragm id.  level: Level.  direction: Direction.
+        reactions: Reactions from the two sides (−, +) of the line, Fpx-scaled [N].
+        crossing: Crossing length of the line through the diaphragm [m].
+        unit_shear: f·max(reactions)/crossing [N/m].
+    """
+
+    line: str
+    diaphragm: str
+    level: str
+    direction: Direction
+    reactions: tuple[float, float]
+    crossing: float
+    unit_shear: float
+
+
+@dataclass(frozen=True, slots=True, kw_only=True)
+class Chord:
+    """Chord force of one diaphragm piece.
+
+    Attributes:
+        piece: Piece id.  diaphragm: Diaphragm id.  level: Level.  direction: Direction.
+        span: Span between its lines, or cantilever length [m].
+        depth: Mean depth along the force, area / span [m].
+        moment: f·F·L/8 (or f·F·L/2 cantilevered) [N·m].
+        force: moment / depth [N].
+        cantilever: True for a piece on one line.
+    """
+
+    piece: str
+    diaphragm: str
+    level: str
+    direction: Direction
+    span: float
+    depth: float
+    moment: float
+    force: float
+    cantilever: bool = False
+
+    @property
+    def aspect_ratio(self) -> float:
+        """Span / depth [-]."""
+        return self.span / self.depth
+
+
+@dataclass(frozen=True, slots=True, kw_only=True)
+class Collector:
+    """Collector force of one line.
+
+    Attributes:
+        line: Line id.  level: Level.  direction: Direction.
+        length: Collector length (crossing not backed by walls) [m].
+        unit_shear: f·(line reaction)/(total crossing) [N/m].
+        omega0: Overstrength factor applied [-].
+        force: omega0 · unit_shear · length [N].
+    """
+
+    line: str
+    level: str
+    direction: Direction
+    length: float
+    unit_shear: float
+    omega0: float
+    force: float
+
+
+@dataclass(frozen=True, slots=True, kw_only=True)
+class DiaphragmDemands:
+    """Diaphragm demands of the building (SI)."""
+
+    shears: tuple[LineShear, ...]
+    chords: tuple[Chord, ...]
+    collectors: tuple[Collector, ...]
+
+
+def _side(coord: float, offset: float) -> int:
+    return 1 if coord >= offset else 0
+
+
+def _reactions(
+    fr: FlexibleResult, lines: dict[str, ResistanceLine], scale: float, tol: float
+) -> dict[tuple[str, str], list[float]]:
+    ax = perp(fr.direction)
+    out: dict[tuple[str, str], list[float]] = defaultdict(lambda: [0.0, 0.0])
+    for piece in fr.pieces:
+        for line_id, share in piece.shares:
+            if line_id in lines:
+                side = _side(piece.centroid[ax], lines[line_id].offset)
+                out[(line_id, piece.diaphragm)][side] += abs(share) * scale
+    for pl in fr.point_loads:
+        shares = [(lid, s) for lid, s in pl.shares if lid in lines]
+        if len(shares) == 1 and abs(pl.location[ax] - lines[shares[0][0]].offset) <= tol:
+            continue  # stacks on the line below: no diaphragm shear
+        host = next((p.diaphragm for p in fr.pieces if p.polygon.covers(Point(pl.location))), None)
+        for lid, s in shares:
+            dia = host or (lines[lid].crossings[0][0] if lines[lid].crossings else "")
+            out[(lid, dia)][_side(pl.location[ax], lines[lid].offset)] += abs(s)
+    return out
+
+
+def _chord(piece: DiaphragmPiece, lines: dict[str, ResistanceLine], F: float) -> Chord | None:
+    ax = perp(piece.direction)
+    sup = [lines[s] for s in piece.supports if s in lines]
+    if len(sup) == 2:
+        span, cant = abs(sup[0].offset - sup[1].offset), False
+    elif len(sup) == 1:
+        lo, hi = piece.polygon.bounds[ax], piece.polygon.bounds[ax + 2]
+        span, cant = max(abs(hi - sup[0].offset), abs(sup[0].offset - lo)), True
+    else:
+        return None
+    if span <= 1e-9 or piece.polygon.area <= 0.0:
+        return None
+    depth = float(piece.polygon.area) / span
+    M = F * span / (2.0 if cant else 8.0)
+    return Chord(piece=piece.id, diaphragm=piece.diaphragm, level=piece.level,
+                 direction=piece.direction, span=float(span), depth=depth, moment=float(M),
+                 force=float(M / depth), cantilever=cant)
+
+
+def diaphragm_demands(allocation: Allocation, config: ProjectConfig) -> DiaphragmDemands:
+    """Unit shears, chord and collector forces of every diaphragm level and direction.
+
+    ASCE 7-16 §12.10.1.1 (Fpx), §12.10.2.1 (collectors with Ω0 in SDC C–F).
+
+    Args:
+        allocation: Flexible results with their pieces, lines and level forces [N].
+        config: Design basis, Ω0, SDS/SD1/S1 for the SDC, line tolerance [m].
+
+    Returns:
+        The demands, in the order of the allocation's results.
+    """
+    f = seismic_factor(config.design_basis)
+    omega = config.seismic.omega0 if seismic_design_category(config.seismic).at_least("C") else 1.0
+    tol = config.analysis.line_tolerance
+    shears, chords, collectors = [], [], []
+    for fr in allocation.flexible:
+        lv = level_load(allocation, fr.level)
+        scale = lv.diaphragm_force / lv.story_force if lv and lv.story_force > 0 else 1.0
+        lines = {ln.id: ln for ln in allocation.lines
+                 if ln.level == fr.level and ln.direction is fr.direction}
+        totals: dict[str, float] = defaultdict(float)
+        for (lid, dia), (r0, r1) in sorted(_reactions(fr, lines, scale, tol).items()):
+            ln = lines[lid]
+            crossing = dict(ln.crossings).get(dia) or sum(c for _, c in ln.crossings)
+            crossing = crossing or ln.wall_length
+            totals[lid] += r0 + r1
+            shears.append(LineShear(
+                line=lid, diaphragm=dia, level=fr.level, direction=fr.direction,
+                reactions=(r0, r1), crossing=crossing, unit_shear=f * max(r0, r1) / crossing))
+        for lid, total in totals.items():
+            ln = lines[lid]
+            cross = sum(c for _, c in ln.crossings) or ln.wall_length
+            if ln.collector_length > 1e-6 and total > 0.0:
+                v = f * total / cross
+                collectors.append(Collector(
+                    line=lid, level=fr.level, direction=fr.direction,
+                    length=ln.collector_length, unit_shear=v, omega0=omega,
+                    force=omega * v * ln.collector_length))
+        for piece in fr.pieces:
+            ch = _chord(piece, lines, f * abs(piece.force) * scale)
+            if ch is not None:
+                chords.append(ch)
+    return DiaphragmDemands(shears=tuple(shears), chords=tuple(chords),
+                            collectors=tuple(collectors))
+
+
+def check_diaphragm(
+    model: BuildingModel | None,
+    allocation: Allocation,
+    config: ProjectConfig,
+    *,
+    demands: DiaphragmDemands | None = None,
+) -> list[Finding]:
+    """Info findings with the governing diaphragm demands; warnings for slender pieces.
+
+    ASCE 7-16 §12.10.1.1 (diaphragm forces), §12.10.2.1 (collectors); AWC SDPWS-2015
+    §4.2.4 (aspect ratio).
+
+    Args:
+        model: The model, for the slabs' GlobalIds (None: the storey's GlobalId).
+        allocation: The allocation.
+        config: The project config.
+        demands: Precomputed :func:`diaphragm_demands`, or None.
+
+    Returns:
+        Findings, unsorted.
+    """
+    dem = demands if demands is not None else diaphragm_demands(allocation, config)
+    slabs = {d.id: d.slab_guids for d in model.diaphragms} if model is not None else {}
+    basis = config.design_basis.value
+
+    def where(level: str, dia: str) -> tuple[tuple[str, ...], str]:
+        g = slabs.get(dia, ())
+        return (g, "") if g else (level_guids(allocation, level, model), f"|{dia}")
+
+    findings: list[Finding] = []
+    best: dict[tuple, LineShear] = {}
+    for s in dem.shears:
+        key = (s.level, s.direction, s.diaphragm)
+        if key not in best or (s.unit_shear, s.line) > (best[key].unit_shear, best[key].line):
+            best[key] = s
+    for (level, d, dia), s in sorted(best.items()):
+        guids, extra = where(level, dia)
+        findings.append(Finding(
+            rule=RULE, clause="ASCE 7-16 §12.10.1.1", severity=Severity.INFO, level=level,
+            direction=d, guids=guids,
+            title=f"Diaphragm unit shear {fmt(s.unit_shear, 'force_per_length', config)}",
+            description=(
+                f"Diaphragm {dia} of {level!r}, force in {d.value}: largest unit shear at "
+                f"line {s.line}, {fmt(max(s.reactions), 'force', config)} (Fpx-scaled) over "
+                f"{fmt(s.crossing, 'length', config)} ({basis}) = "
+                f"{fmt(s.unit_shear, 'force_per_length', config)}. No diaphragm capacity is "
+                "configured: check the sheathing and nailing for it."),
+            demand=s.unit_shear, unit="N/m", discriminator=f"{level}|{d.value}|shear{extra}"))
+    findings += _chord_findings(dem.chords, allocation, config, where)
+    findings += _collector_findings(dem.collectors, allocation, config)
+    return findings
+
+
+def _chord_findings(chords, allocation, config, where) -> list[Finding]:
+    out: list[Finding] = []
+    worst: dict[tuple, Chord] = {}
+    for c in chords:
+        key = (c.level, c.direction, c.diaphragm)
+        if key not in worst or (c.force, c.piece) > (worst[key].force, worst[key].piece):
+            worst[key] = c
+        if not c.cantilever and c.aspect_ratio > ASPECT_LIMIT:
+            guids, extra = where(c.level, c.diaphragm)
+            out.append(Finding(
+                rule=RULE, clause="AWC SDPWS-2015 §4.2.4", severity=Severity.WARNING,
+                level=c.level, direction=c.direction, guids=guids,
+                title=f"Diaphragm span/depth {c.aspect_ratio:.1f} > {ASPECT_LIMIT:g}",
+                description=(
+                    f"Piece {c.piece} of {c.level!r} spans {fmt(c.span, 'length', config)} "
+                    f"between lines with a mean depth of {fmt(c.depth, 'length', config)}: "
+                    f"L/W = {c.aspect_ratio:.2f}, above the {ASPECT_LIMIT:g}:1 limit of "
+                    "blocked wood structural panel diaphragms (3:1 unblocked). Add a line "
+                    "of shear walls, or confirm the diaphragm is not wood sheathed."),
+                demand=c.aspect_ratio, capacity=ASPECT_LIMIT, unit="-",
+                discriminator=f"{c.level}|{c.direction.value}|aspect|{c.piece}{extra}"))
+    for (level, d, dia), c in sorted(worst.items()):
+        guids, extra = where(level, dia)
+        kind = "cantilever, F·L/2" if c.cantilever else "simple span, F·L/8"
+        out.append(Finding(
+            rule=RULE, clause="ASCE 7-16 §12.10.1.1", severity=Severity.INFO, level=level,
+            direction=d, guids=guids,
+            title=f"Diaphragm chord force {fmt(c.force, 'force', config)}",
+            description=(
+                f"Diaphragm {dia} of {level!r}, force in {d.value}: largest chord force in "
+                f"piece {c.piece} ({kind}): M = {fmt(c.moment, 'moment', config)} over "
+                f"depth {fmt(c.depth, 'length', config)} = {fmt(c.force, 'force', config)} "
+                "tension and compression in the chords along the span."),
+            demand=c.force, unit="N", discriminator=f"{level}|{d.value}|chord{extra}"))
+    return out
+
+
+def _collector_findings(collectors, allocation, config) -> list[Finding]:
+    out = []
+    lines = {ln.id: ln for ln in allocation.lines}
+    for c in collectors:
+        ln = lines[c.line]
+        omega = f"Ω0 = {c.omega0:g} (SDC C–F)" if c.omega0 != 1.0 else "no Ω0 (SDC A–B)"
+        out.append(Finding(
+            rule=RULE, clause="ASCE 7-16 §12.10.2.1", severity=Severity.INFO, level=c.level,
+            direction=c.direction,
+            guids=line_guids(allocation, ln) or unique_sorted(level_guids(allocation, c.level)),
+            title=f"Collector force {fmt(c.force, 'force', config)} on line {c.line}",
+            description=(
+                f"Line {c.line} of {c.level!r}: {fmt(c.length, 'length', config)} of its "
+                f"crossing has no wall; collectors there take "
+                f"{fmt(c.unit_shear, 'force_per_length', config)} × length × {omega} = "
+                f"{fmt(c.force, 'force', config)} (an upper bound at the wall ends)."),
+            demand=c.force, unit="N", discriminator=f"{c.level}|{c.direction.value}|collector",
+            location=None))
+    return out

@@ -1,0 +1,117 @@
+"""A wall's 'Axis' representation: plan direction and whether the wall is curved.
+
+The Axis (reference line) is often a face of the wall, not its centreline, so it is
+used only for direction and curvature; the centreline comes from the body footprint.
+World X-Y, unit vector; counter-clockwise angles.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+
+import ifcopenshell
+import ifcopenshell.util.representation
+import numpy as np
+from numpy.typing import NDArray
+
+from ifc_bridge._direct import placement_matrix
+
+__all__ = ["AxisInfo", "wall_axis"]
+
+_TURN_TOL = np.radians(1.0)  # [rad]; a polyline turning more than this is not straight
+_CURVED_BASES = ("IfcCircle", "IfcEllipse", "IfcBSplineCurve", "IfcClothoid")
+
+
+@dataclass(frozen=True, slots=True, kw_only=True)
+class AxisInfo:
+    """What the Axis curve says about a wall.
+
+    Attributes:
+        direction: Unit plan vector from the curve's start to its end [-], or None.
+        curved: True for arcs, trimmed circles, or polylines that turn.
+    """
+
+    direction: tuple[float, float] | None
+    curved: bool
+
+
+def _points(curve: ifcopenshell.entity_instance) -> tuple[list[list[float]] | None, bool]:
+    """2D points of a curve and whether it has curved parts."""
+    if curve.is_a("IfcPolyline"):
+        return [list(p.Coordinates[:2]) for p in curve.Points], False
+    if curve.is_a("IfcIndexedPolyCurve"):
+        coords = [list(c[:2]) for c in curve.Points.CoordList]
+        curved = any(s.is_a("IfcArcIndex") for s in curve.Segments or ())
+        return coords, curved
+    if curve.is_a("IfcTrimmedCurve"):
+        basis = curve.BasisCurve
+        curved = basis.is_a() in _CURVED_BASES or not basis.is_a("IfcLine")
+        pts = [t.Coordinates[:2] for t in (*curve.Trim1, *curve.Trim2) if hasattr(t, "Coordinates")]
+        return ([list(p) for p in pts] if len(pts) == 2 else None), curved
+    if curve.is_a("IfcCompositeCurve"):
+        pts: list[list[float]] = []
+        curved = False
+        for seg in curve.Segments:
+            parent = getattr(seg, "ParentCurve", None)
+            if parent is None:
+                return None, True
+            p, c = _points(parent)
+            curved = curved or c
+            if p is None:
+                return None, curved
+            if getattr(seg, "SameSense", True) is False:
+                p = p[::-1]
+            pts.extend(p if not pts else p[1:])
+        return pts, curved
+    if curve.is_a("IfcLine"):
+        return None, False
+    return None, curve.is_a() in _CURVED_BASES
+
+
+def _turns(pts: NDArray[np.float64]) -> bool:
+    seg = np.diff(pts, axis=0)
+    seg = seg[np.linalg.norm(seg, axis=1) > 1e-9]
+    if len(seg) < 2:
+        return False
+    ang = np.arctan2(seg[:, 1], seg[:, 0])
+    turn = np.abs((np.diff(ang) + np.pi) % (2 * np.pi) - np.pi)
+    return bool((turn > _TURN_TOL).any())
+
+
+def wall_axis(
+    wall: ifcopenshell.entity_instance, cache: dict[int, NDArray[np.float64]]
+) -> AxisInfo:
+    """Direction and curvature of a wall from its 'Axis' representation.
+
+    Common practice: IfcWall 'Axis' shape representation, IFC 4.3 §5.1.3.43
+    (its reference line, offset from the centreline by the layer-set usage).
+
+    Args:
+        wall: The IfcWall.
+        cache: Placement memo.
+
+    Returns:
+        Axis information; ``direction`` None when there is no usable Axis.
+    """
+    reps = [
+        r for r in (wall.Representation.Representations if wall.Representation else ())
+        if (r.RepresentationIdentifier or "") == "Axis"
+    ]
+    if not reps:
+        return AxisInfo(direction=None, curved=False)
+    m0 = placement_matrix(wall.ObjectPlacement, cache)
+    for resolved in ifcopenshell.util.representation.resolve_items(reps[0]):
+        pts, curved = _points(resolved["item"])
+        if pts is None or len(pts) < 2:
+            return AxisInfo(direction=None, curved=curved)
+        m = m0 @ resolved["matrix"]
+        local = np.asarray(pts, dtype=np.float64)
+        h = np.c_[local, np.zeros(len(local)), np.ones(len(local))]
+        world = (m @ h.T).T[:, :2]
+        chord = world[-1] - world[0]
+        length = float(np.linalg.norm(chord))
+        if length <= 1e-9:
+            return AxisInfo(direction=None, curved=curved)
+        d = chord / length
+        return AxisInfo(direction=(float(d[0]), float(d[1])), curved=curved or _turns(world))
+    return AxisInfo(direction=None, curved=False)

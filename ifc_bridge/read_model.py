@@ -1,0 +1,125 @@
+"""Front door of the IFC reader: one IFC file in, one :class:`BuildingModel` out.
+
+Reads the storeys as levels, the floor and roof slabs as diaphragms and every
+IfcWall as story-high wall segments, then recognises the shear walls. All geometry
+is meshed in one pass of ifcopenshell's geometry iterator (manifold kernel, falling
+back to opencascade, then to the direct-attribute extractor). SI units: metres,
+world X-Y plan, Z up.
+"""
+
+from __future__ import annotations
+
+import logging
+import os
+from collections.abc import Callable, Sequence
+
+import ifcopenshell
+
+from ifc_bridge._diaphragms import build_diaphragms
+from ifc_bridge._geometry import mesh_elements
+from ifc_bridge._unfilled import unfilled_inserts, unfilled_issues
+from ifc_bridge.errors import IfcContentError
+from ifc_bridge.model import BuildingModel
+from ifc_bridge.open_file import open_ifc, schema_name
+from ifc_bridge.read_levels import read_levels
+from ifc_bridge.read_slabs import read_slab_plans
+from ifc_bridge.read_walls import read_walls
+from ifc_bridge.shear_walls import MatchRule, recognise_shear_walls
+from ifc_bridge.units import length_unit_scale
+
+__all__ = ["read_model"]
+
+_LOG = logging.getLogger(__name__)
+
+Progress = Callable[[str, int, int], None]
+
+
+def _to_mesh(ifc: ifcopenshell.file, walls: list[ifcopenshell.entity_instance]) -> list:
+    slabs = ifc.by_type("IfcSlab")
+    roofs = ifc.by_type("IfcRoof")
+    openings = []
+    for host in (*walls, *slabs, *roofs):
+        openings.extend(rel.RelatedOpeningElement for rel in getattr(host, "HasOpenings", ()) or ())
+    return [*walls, *slabs, *openings, *unfilled_inserts(ifc)]
+
+
+def _project(ifc: ifcopenshell.file) -> tuple[str, str]:
+    projects = ifc.by_type("IfcProject")
+    if not projects:
+        return "", ""
+    return projects[0].Name or "", projects[0].GlobalId
+
+
+def read_model(
+    path: str | os.PathLike[str],
+    *,
+    rules: Sequence[MatchRule] = (),
+    use_predefined_type: bool = True,
+    diaphragm_storeys: Sequence[str] = (),
+    progress: Progress | None = None,
+) -> BuildingModel:
+    """Read an IFC file into the structural model.
+
+    Common practice: levels from IfcBuildingStorey, diaphragms from FLOOR / ROOF /
+    BASESLAB slabs, walls from IfcWall; shear walls by PredefinedType SHEAR or the
+    config's assembly match rules (:func:`ifc_bridge.shear_walls.recognise_shear_walls`).
+
+    Args:
+        path: IFC-SPF file (IFC2X3, IFC4, IFC4X3).
+        rules: Assembly match rules, in config order.
+        use_predefined_type: Treat PredefinedType SHEAR as a shear wall.
+        diaphragm_storeys: Storey names that are diaphragm levels; empty: every
+            storey with a floor or roof slab.
+        progress: Optional ``(stage, done, total)`` callback.
+
+    Returns:
+        The building model [SI: m].
+
+    Raises:
+        IfcFileError: The file is missing, not IFC-SPF, truncated or unparsable.
+        IfcSchemaError: The schema is not IFC2X3, IFC4 or IFC4X3.
+        IfcContentError: No storeys, no walls, a storey without elevation, or an
+            unknown name in ``diaphragm_storeys``.
+        UnitsError: The length unit cannot be converted.
+    """
+    source = str(path)
+    ifc = open_ifc(path)
+    if progress is not None:
+        progress("open", 1, 1)
+    scale = length_unit_scale(ifc, source)
+    storeys = read_levels(ifc, source, scale=scale)
+    walls = ifc.by_type("IfcWall")
+    if not walls:
+        msg = f"{source}: has no IfcWall; model the walls as IfcWall (not proxies or slabs)"
+        raise IfcContentError(msg)
+    meshes = mesh_elements(ifc, _to_mesh(ifc, walls), progress=progress)
+    cache: dict = {}
+    plans, slab_issues = read_slab_plans(
+        ifc, source, scale=scale, levels=storeys, meshes=meshes, cache=cache
+    )
+    levels, diaphragms, dia_issues = build_diaphragms(
+        plans, storeys.levels, diaphragm_storeys=diaphragm_storeys, path=source
+    )
+    if progress is not None:
+        progress("slabs", len(plans), len(plans))
+    read = read_walls(
+        ifc, source, scale=scale, levels=levels, name_of=storeys.name_of,
+        meshes=meshes, cache=cache,
+    )
+    if progress is not None:
+        progress("walls", len(walls), len(walls))
+    insert_issues = unfilled_issues(
+        unfilled_inserts(ifc), read.plans, meshes=meshes, scale=scale, cache=cache, path=source
+    )
+    segments = recognise_shear_walls(read.segments, rules, use_predefined_type=use_predefined_type)
+    name, guid = _project(ifc)
+    issues = (*storeys.issues, *slab_issues, *dia_issues, *read.issues, *insert_issues)
+    _LOG.info("%s: %d levels, %d diaphragms, %d wall segments, %d issues",
+              source, len(levels), len(diaphragms), len(segments), len(issues))
+    return BuildingModel(
+        source=source, schema=schema_name(ifc), project_name=name, project_guid=guid,
+        length_unit_scale=scale, levels=levels, diaphragms=diaphragms, walls=segments,
+        ifc_wall_count=len(walls), issues=issues,
+        storey_guids=tuple((lv.name, lv.guid) for lv in levels),
+        wall_storeys=read.wall_storeys,
+    )

@@ -1,0 +1,203 @@
+"""Read IfcWall entities (subtypes included) into story-high wall segments.
+
+Plan centreline and thickness come from the body footprint's oriented rectangle (the
+'Axis' gives only the direction: it is often a face); base and top from the body's
+z-range (a clipped wall gives its clipped height). Openings are intervals along the
+centreline. World X-Y, metres, Z up.
+"""
+
+from __future__ import annotations
+
+from collections.abc import Mapping
+from dataclasses import dataclass
+
+import ifcopenshell
+import ifcopenshell.util.element
+import numpy as np
+from numpy.typing import NDArray
+
+from ifc_bridge._centreline import Centreline, centreline
+from ifc_bridge._direct import body_extrusion
+from ifc_bridge._geometry import Mesh
+from ifc_bridge._openings import wall_openings
+from ifc_bridge._semantics import WallSemantics, wall_semantics
+from ifc_bridge._split import split_wall
+from ifc_bridge._wall_axis import wall_axis
+from ifc_bridge.model import ImportIssue, IssueSeverity, Level, WallSegment
+from ifc_bridge.read_slabs import level_below
+
+__all__ = ["WallPlan", "WallsRead", "read_walls"]
+
+_MIN_LENGTH = 1e-3  # [m]
+_THICKNESS_TOL = 0.005  # [m]; geometry vs material layers
+
+
+@dataclass(frozen=True, slots=True, kw_only=True)
+class WallPlan:
+    """A wall's whole plan rectangle, before splitting (for matching doors).
+
+    Attributes:
+        guid: GlobalId of the IfcWall.
+        line: Its centreline [m].
+        base: Base elevation [m].
+        top: Top elevation [m].
+    """
+
+    guid: str
+    line: Centreline
+    base: float
+    top: float
+
+
+@dataclass(frozen=True, slots=True, kw_only=True)
+class WallsRead:
+    """What the wall reader found.
+
+    Attributes:
+        segments: Wall segments, file order, bottom-up within a wall.
+        wall_storeys: ``(GlobalId, storey name)`` for every IfcWall.
+        plans: Whole-wall plan rectangles of the walls with geometry.
+        issues: Problems found.
+    """
+
+    segments: tuple[WallSegment, ...]
+    wall_storeys: tuple[tuple[str, str], ...]
+    plans: tuple[WallPlan, ...]
+    issues: tuple[ImportIssue, ...]
+
+
+def _issue(code: str, severity: IssueSeverity, msg: str, guid: str, storey: str = "") -> ImportIssue:
+    return ImportIssue(code=code, severity=severity, message=msg, guids=(guid,), storey=storey)
+
+
+def _body(
+    wall: ifcopenshell.entity_instance,
+    meshes: Mapping[int, Mesh],
+    scale: float,
+    cache: dict[int, NDArray[np.float64]],
+) -> tuple[NDArray[np.float64], float, float] | None:
+    mesh = meshes.get(wall.id())
+    if mesh is not None:
+        return mesh.verts[:, :2], mesh.zmin, mesh.zmax
+    ext = body_extrusion(wall, scale, cache)
+    if ext is None:
+        return None
+    return np.asarray(ext.footprint.convex_hull.exterior.coords), ext.zmin, ext.zmax
+
+
+def _thickness(
+    wall: ifcopenshell.entity_instance, line: Centreline, sem: WallSemantics,
+    curved: bool, path: str, issues: list[ImportIssue],
+) -> float:
+    layers = sem.layer_thickness
+    if curved:
+        thickness = layers if layers is not None else line.thickness
+        msg = (f"{path}: wall {wall.GlobalId} ({sem.name!r}) is curved; read as its chord "
+               f"{line.length:.3f} m long, {thickness:.3f} m thick; split it into straight walls")
+        issues.append(_issue("wall_curved", IssueSeverity.WARNING, msg, wall.GlobalId))
+        return thickness
+    if layers is not None and abs(layers - line.thickness) > _THICKNESS_TOL:
+        msg = (f"{path}: wall {wall.GlobalId} ({sem.name!r}) is {line.thickness:.3f} m thick in "
+               f"its geometry but its material layers total {layers:.3f} m; the geometry is used")
+        issues.append(_issue("wall_thickness_mismatch", IssueSeverity.INFO, msg, wall.GlobalId))
+    return line.thickness
+
+
+def _read_one(
+    wall: ifcopenshell.entity_instance,
+    ctx: _Context,
+) -> tuple[str, tuple[WallSegment, ...], WallPlan | None, list[ImportIssue]]:
+    issues: list[ImportIssue] = []
+    guid = wall.GlobalId
+    container = ifcopenshell.util.element.get_container(wall, ifc_class="IfcBuildingStorey")
+    storey = ctx.name_of.get(container.id(), "") if container is not None else ""
+    body = _body(wall, ctx.meshes, ctx.scale, ctx.cache)
+    if body is None:
+        msg = (f"{ctx.path}: wall {guid} ({wall.Name!r}) has no usable body geometry; not "
+               "analysed; give it a solid 'Body' representation")
+        return storey, (), None, [_issue("wall_no_geometry", IssueSeverity.ERROR, msg, guid, storey)]
+    pts, base, top = body
+    axis = wall_axis(wall, ctx.cache)
+    line = centreline(pts, None if axis.curved else axis.direction)
+    if line is None or line.length < _MIN_LENGTH or line.thickness <= 0.0 or top - base <= 0.0:
+        msg = (f"{ctx.path}: wall {guid} ({wall.Name!r}) has zero length, thickness or height "
+               "in its geometry; not analysed; fix its 'Body' representation")
+        return storey, (), None, [_issue("wall_no_geometry", IssueSeverity.ERROR, msg, guid, storey)]
+    sem = wall_semantics(wall, ctx.scale)
+    thickness = _thickness(wall, line, sem, axis.curved, ctx.path, issues)
+    if not storey:
+        lv = level_below(ctx.levels, base)
+        storey = lv.name
+        msg = (f"{ctx.path}: wall {guid} ({sem.name!r}) is in no storey; read as standing on "
+               f"{storey!r} from its base z = {base:.3f} m; contain it in a storey")
+        issues.append(_issue("wall_not_in_storey", IssueSeverity.WARNING, msg, guid, storey))
+    ops = wall_openings(wall, line, base=base, top=top, meshes=ctx.meshes, scale=ctx.scale,
+                        cache=ctx.cache, path=ctx.path)
+    issues.extend(ops.issues)
+    whole = WallSegment(
+        guid=guid, name=sem.name, storey=storey, level="", base_elevation=base,
+        top_elevation=top, start=line.start, end=line.end, thickness=thickness,
+        openings=ops.openings, type_name=sem.type_name, materials=sem.materials,
+        predefined_type=sem.predefined_type, properties=sem.properties, curved=axis.curved,
+    )
+    storey_elevation = next(lv.elevation for lv in ctx.levels if lv.name == storey)
+    parts = split_wall(whole, ctx.diaphragm_levels, storey_elevation=storey_elevation)
+    return storey, parts, WallPlan(guid=guid, line=line, base=base, top=top), issues
+
+
+@dataclass(frozen=True, slots=True, kw_only=True)
+class _Context:
+    path: str
+    scale: float
+    levels: tuple[Level, ...]
+    diaphragm_levels: tuple[Level, ...]
+    name_of: Mapping[int, str]
+    meshes: Mapping[int, Mesh]
+    cache: dict[int, NDArray[np.float64]]
+
+
+def read_walls(
+    ifc: ifcopenshell.file,
+    path: str,
+    *,
+    scale: float,
+    levels: tuple[Level, ...],
+    name_of: Mapping[int, str],
+    meshes: Mapping[int, Mesh],
+    cache: dict[int, NDArray[np.float64]],
+) -> WallsRead:
+    """Wall segments of every IfcWall, split at the diaphragm levels they pass.
+
+    Common practice: a wall's centreline is the mid-line of its plan rectangle; a
+    wall through several floors is one segment per story.
+
+    Args:
+        ifc: The open file.
+        path: File name, for messages.
+        scale: Length unit scale [m per file unit].
+        levels: Levels sorted by elevation, with ``is_diaphragm_level`` final.
+        name_of: IfcBuildingStorey entity id -> level name.
+        meshes: Meshes by entity id, world coordinates [m].
+        cache: Placement memo.
+
+    Returns:
+        Segments, the storey of every wall, plan rectangles and issues.
+    """
+    ctx = _Context(
+        path=path, scale=scale, levels=levels,
+        diaphragm_levels=tuple(lv for lv in levels if lv.is_diaphragm_level),
+        name_of=name_of, meshes=meshes, cache=cache,
+    )
+    segments: list[WallSegment] = []
+    storeys: list[tuple[str, str]] = []
+    plans: list[WallPlan] = []
+    issues: list[ImportIssue] = []
+    for wall in ifc.by_type("IfcWall"):
+        storey, parts, plan, found = _read_one(wall, ctx)
+        storeys.append((wall.GlobalId, storey))
+        segments.extend(parts)
+        issues.extend(found)
+        if plan is not None:
+            plans.append(plan)
+    return WallsRead(segments=tuple(segments), wall_storeys=tuple(storeys),
+                     plans=tuple(plans), issues=tuple(issues))
