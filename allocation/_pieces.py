@@ -16,6 +16,7 @@ from __future__ import annotations
 
 from collections.abc import Sequence
 from dataclasses import dataclass
+from itertools import pairwise
 
 from shapely.geometry import MultiLineString, Polygon
 from shapely.geometry.base import BaseGeometry
@@ -81,7 +82,7 @@ def _contact(piece: Polygon, support: Support) -> list[tuple[float, float]]:
     spans = []
     for ring in (piece.exterior, *piece.interiors):
         c = list(ring.coords)
-        for (u0, v0), (u1, v1) in zip(c, c[1:], strict=False):
+        for (u0, v0), (u1, v1) in pairwise(c):
             if abs(v0 - support.v) > _EPS or abs(v1 - support.v) > _EPS:
                 continue
             a, b = min(u0, u1), max(u0, u1)
@@ -101,9 +102,7 @@ def _contact(piece: Polygon, support: Support) -> list[tuple[float, float]]:
 
 def _cut_across(piece: Polygon, supports: Sequence[Support]) -> list[Polygon]:
     u0, v0, u1, v1 = piece.bounds
-    ends = sorted(
-        {e for s in supports for span in _contact(piece, s) for e in span}
-    )
+    ends = sorted({e for s in supports for span in _contact(piece, s) for e in span})
     ends = [e for e in ends if u0 + _EPS < e < u1 - _EPS]
     if not ends:
         return [piece]
@@ -135,6 +134,7 @@ def split_region(local: Polygon, supports: Sequence[Support]) -> list[Piece]:
                 sorted((s for s in supports if _contact(q, s)), key=lambda s: s.v)
             )
             pieces.append(Piece(local=q, supports=touching))
-    pieces.sort(key=lambda p: (round(p.local.centroid.y, 9), round(p.local.centroid.x, 9)))
+    pieces.sort(
+        key=lambda p: (round(p.local.centroid.y, 9), round(p.local.centroid.x, 9))
+    )
     return pieces
-

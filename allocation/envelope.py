@@ -93,9 +93,9 @@ def envelope(
 
 
 def line_envelope(
+    lines: Sequence[ResistanceLine],
     flexible: Sequence[FlexibleResult],
     rigid: Sequence[RigidResult],
-    lines: Sequence[ResistanceLine],
     *,
     method: DiaphragmMethod = DiaphragmMethod.ENVELOPE,
 ) -> dict[LineId, dict[str, float]]:
@@ -106,9 +106,9 @@ def line_envelope(
     the cases. Its flexible value is the largest |line force| over flexible results.
 
     Args:
+        lines: The lines, with their pier ids.
         flexible: Flexible results [N].
         rigid: Rigid results [N].
-        lines: The lines, with their pier ids.
         method: ``ENVELOPE`` takes the larger; ``FLEXIBLE``/``RIGID`` only that one.
 
     Returns:

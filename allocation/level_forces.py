@@ -37,7 +37,7 @@ def _checked(levels: Sequence[LevelLoad]) -> list[LevelLoad]:
         if not (math.isfinite(lv.height) and lv.height > 0.0):
             msg = (
                 f"level {lv.level!r} (GUID {lv.guid}): height above the seismic base "
-                f"{lv.height} m must be > 0; check seismic.base_level"
+                f"{lv.height} m must be > 0; check [levels].base"
             )
             raise ParameterError(msg)
         if not (math.isfinite(lv.seismic_weight) and lv.seismic_weight > 0.0):

@@ -1,8 +1,8 @@
 """Lines of resistance: piers parallel to a direction grouped by perpendicular offset.
 
-Axes: plan X-Y [m]. A line acting in X (walls parallel to X) has its ``offset`` in y and
-runs along x; a line acting in Y has its offset in x and runs along y. "Along" below means
-x for an X line and y for a Y line.
+Axes: plan X-Y [m]. A line acting in X (walls parallel to X) has its ``offset`` in y
+and runs along x; a line acting in Y has its offset in x and runs along y. "Along"
+below means x for an X line and y for a Y line.
 
 Grouping is single-linkage along the sorted pier offsets: a pier joins the current line
 when its offset is within ``line_tolerance`` of the previous pier's offset, so a line's
@@ -79,8 +79,10 @@ def _merge(intervals: Iterable[tuple[float, float]]) -> list[tuple[float, float]
     return [(a, b) for a, b in out]
 
 
-def _chords(polygon: Polygon, direction: Direction, offset: float) -> list[tuple[float, float]]:
-    """Intervals along the line where the infinite line at ``offset`` meets the polygon."""
+def _chords(
+    polygon: Polygon, direction: Direction, offset: float
+) -> list[tuple[float, float]]:
+    """Intervals along the line where the line at ``offset`` meets the polygon."""
     x0, y0, x1, y1 = polygon.bounds
     if direction is Direction.X:
         probe = LineString([(x0 - 1.0, offset), (x1 + 1.0, offset)])
@@ -123,7 +125,9 @@ def line_crossing(
     poly, d = diaphragm.polygon, line.direction
     found = _overlapping(_chords(poly, d, line.offset), line.wall_extent)
     if found:
-        return Crossing(diaphragm=diaphragm.id, offset=float(line.offset), segments=found)
+        return Crossing(
+            diaphragm=diaphragm.id, offset=float(line.offset), segments=found
+        )
     rings = [poly.exterior, *poly.interiors]
     edges = sorted(
         {perpendicular(c, d) for r in rings for c in r.coords},
@@ -152,7 +156,9 @@ def _cluster(piers: list[Pier], direction: Direction, tol: float) -> list[list[P
     return groups
 
 
-def _covered(spans: list[tuple[float, float]], chords: Iterable[tuple[float, float]]) -> float:
+def _covered(
+    spans: list[tuple[float, float]], chords: Iterable[tuple[float, float]]
+) -> float:
     total = 0.0
     for a, b in chords:
         for s0, s1 in spans:
@@ -237,7 +243,11 @@ def find_lines(
         for n, group in enumerate(groups, start=1):
             line_id = f"L{level_index}-{direction.value}-{n}"
             line = _make_line(
-                group, regions, line_id=line_id, level=level, direction=direction,
+                group,
+                regions,
+                line_id=line_id,
+                level=level,
+                direction=direction,
                 tolerance=tol,
             )
             lines.append(line)
@@ -257,7 +267,10 @@ def _no_line(level: str, direction: Direction, slabs: tuple[str, ...]) -> Condit
         f"add shear walls parallel to {direction.value} under this diaphragm"
     )
     return Condition(
-        kind=ConditionKind.NO_LINE, level=level, direction=direction, guids=slabs,
+        kind=ConditionKind.NO_LINE,
+        level=level,
+        direction=direction,
+        guids=slabs,
         detail=detail,
     )
 

@@ -6,8 +6,7 @@ through its y-arm, torsion; a Y pier resists Fy and, through its x-arm, torsion.
 forces are signed along +X (X piers) or +Y (Y piers). Torsion is counter-clockwise
 positive about the centre of rigidity (CR).
 
-Closed form (common practice, e.g. any text on lateral force distribution in
-diaphragms)::
+Closed form (common practice: direct plus torsional shear about the CR)::
 
     xcr = Σky·x/Σky      ycr = Σkx·y/Σkx
     J   = Σkx·(y − ycr)² + Σky·(x − xcr)²
@@ -264,8 +263,9 @@ def allocate_rigid(
     Returns:
         The signed pier forces [N] of both directions, the CR, J, the torsion [N·m],
         the drift ratio [-] and the conditions: ``NO_LINE`` when no pier resists the
-        force direction (all forces 0), ``TORSIONAL_INSTABILITY`` when J = 0 (direct
-        shear only).
+        force direction (all forces 0, drift ratio 1.0: undefined),
+        ``TORSIONAL_INSTABILITY`` when J = 0 (direct shear only; drift ratio
+        ``DRIFT_RATIO_LIMIT`` unless the load passes through the CR).
 
     Raises:
         ParameterError: An input is out of its domain.

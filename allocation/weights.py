@@ -4,18 +4,16 @@ Plan coordinates are global X-Y [m]; weights in N, loads per area in Pa.
 
 Common practice, as used here:
 
-* Slab weight: diaphragm plan area (openings excluded) × the roof dead load where the
+* Slab: diaphragm plan area (openings excluded) × the roof dead load where the
   diaphragm's kind is ``ROOF``, else × the floor dead load.
-* Walls: each story-high wall segment (shear wall or not) sends half its weight to the
-  level it stands on and half to the level whose diaphragm it supports. A wall with
-  nothing above it (``level == ""``: a parapet, a wall above the roof) sends its whole
-  weight to the level it stands on.
-* Weight that lands on the seismic base, or on a level below it, is not part of the
-  effective seismic weight W (it goes straight to the foundation).
-* Weight that lands on a level above the base that carries no diaphragm goes to the
-  nearest diaphragm level by elevation (the upper one on a tie), and is logged.
-* Wall elevation area is length × height less the openings (clipped to the segment);
-  the unit load is the assembly's ``wall_dead_load``, else ``loads.wall``.
+* Walls: each story-high segment (shear wall or not) sends half its weight to the level
+  it stands on and half to the level whose diaphragm it supports; a wall with nothing
+  above (``level == ""``: a parapet) sends all of it to the level it stands on. Area is
+  length × height less the openings (clipped to the segment); the unit load is the
+  assembly's ``wall_dead_load``, else ``loads.wall``.
+* Weight landing on the seismic base or below is not part of W (it goes to the
+  foundation); weight landing on a level above the base without a diaphragm goes to
+  the nearest diaphragm level by elevation (the upper one on a tie), and is logged.
 * Extra weight given for a level is spread over its diaphragms in proportion to area.
 """
 
@@ -30,7 +28,7 @@ from dataclasses import dataclass
 from allocation.errors import ParameterError
 from allocation.parameters import AnalysisOptions, DeadLoads
 from allocation.results import LevelLoad, MassItem, WeightItem
-from ifc_bridge.model import BuildingModel, Level, WallSegment
+from ifc_bridge.model import BuildingModel, Diaphragm, Level, WallSegment
 
 __all__ = ["level_weights", "wall_elevation_area", "wall_unit_load"]
 
@@ -51,10 +49,7 @@ class _WallShare:
     source: str  # WALLS_BELOW or WALLS_ABOVE
     area: float  # tributary elevation area [m²]
     unit_load: float  # [Pa]
-
-    @property
-    def weight(self) -> float:
-        return self.area * self.unit_load
+    weight: float  # area × unit_load [N]
 
 
 def wall_elevation_area(wall: WallSegment) -> float:
@@ -70,12 +65,11 @@ def wall_elevation_area(wall: WallSegment) -> float:
         Area [m²].
     """
     length, height = wall.length, wall.height
-    holes = 0.0
-    for o in wall.openings:
-        width = min(o.end, length) - max(o.start, 0.0)
-        tall = min(o.top, height) - max(o.bottom, 0.0)
-        if width > 0.0 and tall > 0.0:
-            holes += width * tall
+    holes = math.fsum(
+        max(min(o.end, length) - max(o.start, 0.0), 0.0)
+        * max(min(o.top, height) - max(o.bottom, 0.0), 0.0)
+        for o in wall.openings
+    )
     return float(max(length * height - holes, 0.0))
 
 
@@ -111,7 +105,7 @@ def _base(model: BuildingModel, base_level: str) -> Level:
         return model.level(base_level)
     except KeyError:
         names = ", ".join(repr(lv.name) for lv in model.levels)
-        msg = f"seismic.base_level = {base_level!r} is not a level; levels: {names}"
+        msg = f"[levels].base = {base_level!r} is not a level; levels: {names}"
         raise ParameterError(msg) from None
 
 
@@ -146,35 +140,40 @@ def _diaphragm_levels(
     return chosen
 
 
-def _target(
-    name: str, model: BuildingModel, base: Level, diaphragms: Sequence[Level], wall: str
+def _targets(
+    model: BuildingModel, base: Level, diaphragms: Sequence[Level]
+) -> dict[str, str | None]:
+    """Diaphragm level that takes the weight landing on each level; None at the base."""
+    names = {d.name for d in diaphragms}
+    out: dict[str, str | None] = {}
+    for lv in model.levels:
+        if lv.name in names or lv.elevation <= base.elevation:
+            out[lv.name] = lv.name if lv.name in names else None
+        else:
+            near = min(
+                diaphragms, key=lambda d: (abs(d.elevation - lv.elevation), -d.index)
+            )
+            logger.info(
+                "level %r has no diaphragm: weight goes to %r", lv.name, near.name
+            )
+            out[lv.name] = near.name
+    return out
+
+
+def _lookup(
+    targets: dict[str, str | None], name: str, what: str, source: str
 ) -> str | None:
-    """Diaphragm level that receives weight landing on level ``name``, or None."""
-    try:
-        lv = model.level(name)
-    except KeyError:
-        msg = f"wall {wall}: level {name!r} is not a level of {model.source}"
-        raise ParameterError(msg) from None
-    if lv.elevation <= base.elevation:
-        return None
-    if any(d.name == name for d in diaphragms):
-        return name
-    nearest = min(diaphragms, key=lambda d: (abs(d.elevation - lv.elevation), -d.index))
-    logger.info(
-        "wall %s: weight on level %r (no diaphragm) goes to level %r",
-        wall,
-        name,
-        nearest.name,
-    )
-    return nearest.name
+    if name not in targets:
+        msg = f"{source}: {what}: level {name!r} is not a level of the model"
+        raise ParameterError(msg)
+    return targets[name]
 
 
 def _wall_shares(
     model: BuildingModel,
     loads: DeadLoads,
     options: AnalysisOptions,
-    base: Level,
-    diaphragms: Sequence[Level],
+    targets: dict[str, str | None],
 ) -> dict[str, list[_WallShare]]:
     shares: dict[str, list[_WallShare]] = defaultdict(list)
     for w in model.walls:
@@ -184,12 +183,13 @@ def _wall_shares(
         else:  # nothing above: a parapet's whole weight to the level it stands on
             parts = ((w.storey, WALLS_ABOVE, 1.0),)
         for name, source, fraction in parts:
-            target = _target(name, model, base, diaphragms, w.guid)
+            target = _lookup(targets, name, f"wall {w.guid}", model.source)
             if target is not None:
-                share = _WallShare(
-                    wall=w, source=source, area=fraction * area, unit_load=q
+                a = fraction * area
+                sh = _WallShare(
+                    wall=w, source=source, area=a, unit_load=q, weight=a * q
                 )
-                shares[target].append(share)
+                shares[target].append(sh)
     return shares
 
 
@@ -201,13 +201,13 @@ def _extras(
     for name, weight in loads.extra:
         if name not in names:
             listed = ", ".join(repr(n) for n in sorted(names))
-            known = any(lv.name == name for lv in model.levels)
             where = (
-                "not a diaphragm level above the seismic base"
-                if known
-                else ("not a level of the model")
+                "a level" if any(lv.name == name for lv in model.levels) else "no level"
             )
-            msg = f"loads.extra.{name}: {where}; diaphragm levels: {listed}"
+            msg = (
+                f"loads.extra.{name}: {where}, but not a diaphragm level above the "
+                f"seismic base; diaphragm levels: {listed}"
+            )
             raise ParameterError(msg)
         out[name] += weight
     return out
@@ -218,42 +218,46 @@ def _grouped(items: Iterable[_Row]) -> list[WeightItem]:
     groups: dict[tuple[str, float], list[tuple[float, float, Iterable[str]]]] = {}
     for source, q, quantity, weight, guids in items:
         groups.setdefault((source, q), []).append((quantity, weight, guids))
-    out = []
-    for (source, q), rows in groups.items():
-        out.append(
-            WeightItem(
-                source=source,
-                quantity=math.fsum(r[0] for r in rows),
-                unit_load=q,
-                weight=math.fsum(r[1] for r in rows),
-                guids=tuple(sorted({g for r in rows for g in r[2]})),
-            )
+    return [
+        WeightItem(
+            source=source,
+            quantity=math.fsum(r[0] for r in rows),
+            unit_load=q,
+            weight=math.fsum(r[1] for r in rows),
+            guids=tuple(sorted({g for r in rows for g in r[2]})),
         )
-    return out
+        for (source, q), rows in groups.items()
+    ]
 
 
 def _slab_parts(
-    model: BuildingModel, level: str, loads: DeadLoads
+    model: BuildingModel, level: str, loads: DeadLoads, targets: dict[str, str | None]
 ) -> tuple[list[_Row], list[MassItem]]:
+    """Slabs of the level, and of levels without a diaphragm whose weight lands here."""
     rows: list[_Row] = []
     masses: list[MassItem] = []
-    for d in model.diaphragms_of(level):
+    for d in model.diaphragms:
+        if _lookup(targets, d.level, f"diaphragm {d.id}", model.source) != level:
+            continue
         is_roof = d.kind.upper() == "ROOF"
         q = loads.roof if is_roof else loads.floor
         weight = d.area * q
         rows.append(("roof" if is_roof else "floor", q, d.area, weight, d.slab_guids))
         if weight > 0.0:
-            c = d.polygon.centroid
-            masses.append(
-                MassItem(
-                    source="slab",
-                    ref=d.id,
-                    weight=float(weight),
-                    location=(float(c.x), float(c.y)),
-                    polygon=d.polygon,
-                )
-            )
+            masses.append(_spread("slab", d, weight))
     return rows, masses
+
+
+def _spread(source: str, d: Diaphragm, weight: float) -> MassItem:
+    """A weight spread uniformly over a diaphragm region."""
+    c = d.polygon.centroid
+    return MassItem(
+        source=source,
+        ref=d.id,
+        weight=float(weight),
+        location=(float(c.x), float(c.y)),
+        polygon=d.polygon,
+    )
 
 
 def _wall_masses(shares: Sequence[_WallShare]) -> list[MassItem]:
@@ -286,19 +290,7 @@ def _extra_masses(
     regions = model.diaphragms_of(level.name)
     if regions:
         total = math.fsum(d.area for d in regions)
-        out = []
-        for d in regions:
-            c = d.polygon.centroid
-            out.append(
-                MassItem(
-                    source="extra",
-                    ref=d.id,
-                    weight=float(extra * d.area / total),
-                    location=(float(c.x), float(c.y)),
-                    polygon=d.polygon,
-                )
-            )
-        return out
+        return [_spread("extra", d, extra * d.area / total) for d in regions]
     if not located:
         msg = (
             f"level {level.name!r} (GUID {level.guid}): loads.extra has no diaphragm "
@@ -328,10 +320,11 @@ def _level_load(
     *,
     base: Level,
     loads: DeadLoads,
+    targets: dict[str, str | None],
     shares: Sequence[_WallShare],
     extra: float,
 ) -> LevelLoad:
-    rows, masses = _slab_parts(model, level.name, loads)
+    rows, masses = _slab_parts(model, level.name, loads, targets)
     rows += [(s.source, s.unit_load, s.area, s.weight, (s.wall.guid,)) for s in shares]
     masses += _wall_masses(shares)
     masses += _extra_masses(model, level, extra, masses)
@@ -390,7 +383,8 @@ def level_weights(
     """
     base = _base(model, base_level)
     diaphragms = _diaphragm_levels(model, options, base)
-    shares = _wall_shares(model, loads, options, base, diaphragms)
+    targets = _targets(model, base, diaphragms)
+    shares = _wall_shares(model, loads, options, targets)
     extras = _extras(loads, model, diaphragms)
     return tuple(
         _level_load(
@@ -398,6 +392,7 @@ def level_weights(
             lv,
             base=base,
             loads=loads,
+            targets=targets,
             shares=shares.get(lv.name, ()),
             extra=extras.get(lv.name, 0.0),
         )

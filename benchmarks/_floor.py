@@ -3,7 +3,6 @@
 from __future__ import annotations
 
 import json
-import multiprocessing
 import resource
 import sys
 import time
@@ -23,7 +22,7 @@ def main(model: str, mode: str) -> None:
         s.set("use-world-coords", True)
         s.set("disable-opening-subtractions", True)
         elements = f.by_type("IfcWall") + f.by_type("IfcSlab")
-        it = ifcopenshell.geom.iterator(s, f, multiprocessing.cpu_count(), include=elements,
+        it = ifcopenshell.geom.iterator(s, f, 1, include=elements,
                                         geometry_library="manifold")
         if it.initialize():
             while True:

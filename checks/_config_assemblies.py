@@ -27,11 +27,24 @@ __all__ = ["parse_assemblies"]
 
 logger = logging.getLogger(__name__)
 
-_COMMON = ("name", "kind", "match", "unit_shear_capacity", "wall_dead_load",
-           "aspect_ratio_limit")
+_COMMON = (
+    "name",
+    "kind",
+    "match",
+    "unit_shear_capacity",
+    "wall_dead_load",
+    "aspect_ratio_limit",
+)
 _LIBRARY = ("sheathing", "fastener", "edge_spacing")
-_LIGHT_FRAME = (*_LIBRARY, "nominal_unit_shear", "blocked", "Ga", "chord_E",
-                "chord_area", "hold_down_slip")
+_LIGHT_FRAME = (
+    *_LIBRARY,
+    "nominal_unit_shear",
+    "blocked",
+    "Ga",
+    "chord_E",
+    "chord_area",
+    "hold_down_slip",
+)
 _CONCRETE = ("fc", "fy", "rho_t", "lambda")
 _MODULI = ("E", "G")
 _BY_KIND: dict[AssemblyKind, tuple[str, ...]] = {
@@ -42,18 +55,29 @@ _BY_KIND: dict[AssemblyKind, tuple[str, ...]] = {
     AssemblyKind.OTHER: (*_MODULI, "Ga", "chord_E", "chord_area", "hold_down_slip"),
 }
 _ALL = tuple(dict.fromkeys((*_COMMON, *_LIGHT_FRAME, *_CONCRETE, *_MODULI)))
+_WAYS = {
+    AssemblyKind.WOOD_PANEL: "unit_shear_capacity, nominal_unit_shear, or "
+    "sheathing/fastener/edge_spacing",
+    AssemblyKind.GYPSUM: "unit_shear_capacity, nominal_unit_shear, or "
+    "sheathing/fastener/edge_spacing",
+    AssemblyKind.CONCRETE: "unit_shear_capacity, or fc, fy and rho_t",
+}
 _MATCH_KEYS = ("type_name", "material", "name", "property", "value")
 
 
 def _match_rule(name: str, data: Mapping[str, Any], where: rd.Where) -> MatchRule:
     if "match" not in data:
-        msg = f"{where.at('match')}: missing; give e.g. match = {{ type_name = \"SW-A*\" }}"
+        msg = (
+            f'{where.at("match")}: missing; give e.g. match = {{ type_name = "SW-A*" }}'
+        )
         raise ConfigError(msg)
     inner = where.child("match")
     table = rd.check_keys(data["match"], inner, _MATCH_KEYS)
     globs = {k: rd.string(table, k, inner, default=None) for k in _MATCH_KEYS}
     if globs["value"] is not None and globs["property"] is None:
-        msg = f"{inner.at('value')}: needs property = \"Pset_Name.PropertyName\" beside it"
+        msg = (
+            f'{inner.at("value")}: needs property = "Pset_Name.PropertyName" beside it'
+        )
         raise ConfigError(msg)
     if all(globs[k] is None for k in ("type_name", "material", "name", "property")):
         msg = (
@@ -72,31 +96,41 @@ def _match_rule(name: str, data: Mapping[str, Any], where: rd.Where) -> MatchRul
 
 
 def _properties(
-    name: str, kind: AssemblyKind, data: Mapping[str, Any], where: rd.Where,
+    name: str,
+    kind: AssemblyKind,
+    data: Mapping[str, Any],
+    where: rd.Where,
+    *,
     concrete: ConcreteParams | None,
+    capacity: float | None,
 ) -> AssemblyProperties:
+    """Allocation inputs; a hold-down slip is taken at the assembly's capacity."""
+
     def q(key: str, units: str, *, strict: bool = True) -> float | None:
         return rd.quantity(data, key, where, units, default=None, strict=strict)
 
-    chord_E, chord_area = q("chord_E", "Pa"), q("chord_area", "m**2")
-    if (chord_E is None) != (chord_area is None):
+    chord_e, chord_area = q("chord_E", "Pa"), q("chord_area", "m**2")
+    if (chord_e is None) != (chord_area is None):
         missing = "chord_area" if chord_area is None else "chord_E"
         msg = f"{where.at(missing)}: missing; chord_E and chord_area go together"
         raise ConfigError(msg)
-    E, G = q("E", "Pa"), q("G", "Pa")
-    if concrete is not None and (E is None or G is None):
-        Ec, Gc = concrete_moduli(concrete.fc)
-        E = Ec if E is None else E
-        G = Gc if G is None else G
+    e_mod, g_mod = q("E", "Pa"), q("G", "Pa")
+    if concrete is not None and (e_mod is None or g_mod is None):
+        # ACI 318-19 §19.2.2.1(b) and G = 0.4 Ec (common practice), from the library
+        e_default, g_default = concrete_moduli(concrete.fc)
+        e_mod = e_default if e_mod is None else e_mod
+        g_mod = g_default if g_mod is None else g_mod
+    slip = q("hold_down_slip", "m", strict=False)
     return AssemblyProperties(
         name=name,
         kind=kind,
         wall_dead_load=q("wall_dead_load", "Pa", strict=False),
-        E=E,
-        G=G,
+        E=e_mod,
+        G=g_mod,
         Ga=q("Ga", "N/m"),
-        chord_EA=None if chord_E is None else chord_E * chord_area,
-        hold_down_slip=q("hold_down_slip", "m", strict=False),
+        chord_EA=None if chord_e is None else chord_e * chord_area,
+        hold_down_slip=slip,
+        design_unit_shear=None if slip is None else capacity,
     )
 
 
@@ -110,10 +144,14 @@ def _concrete(data: Mapping[str, Any], where: rd.Where) -> ConcreteParams | None
             raise ConfigError(msg)
     rho_t = rd.number(data, "rho_t", where)
     if rho_t >= 0.1:
-        raise where.error("rho_t", data["rho_t"], "expected a ratio such as 0.0025")
+        err = where.error("rho_t", data["rho_t"], "expected a ratio such as 0.0025")
+        raise err
     lam = rd.number(data, "lambda", where, default=1.0, strict=True)
     if lam > 1.0:
-        raise where.error("lambda", data["lambda"], "must be <= 1.0 (ACI 318-19 §19.2.4)")
+        err = where.error(
+            "lambda", data["lambda"], "must be <= 1.0 (ACI 318-19 §19.2.4)"
+        )
+        raise err
     return ConcreteParams(
         fc=rd.quantity(data, "fc", where, "Pa", strict=True),
         fy=rd.quantity(data, "fy", where, "Pa", strict=True),
@@ -123,14 +161,20 @@ def _concrete(data: Mapping[str, Any], where: rd.Where) -> ConcreteParams | None
 
 
 def _capacity(
-    name: str, kind: AssemblyKind, data: Mapping[str, Any], where: rd.Where,
+    name: str,
+    kind: AssemblyKind,
+    data: Mapping[str, Any],
+    where: rd.Where,
     basis: DesignBasis,
 ) -> tuple[float | None, float | None, str]:
     """(unit_shear_capacity, nominal_unit_shear, capacity_source)."""
     library = [k for k in _LIBRARY if k in data]
     if library and len(library) < len(_LIBRARY):
         missing = next(k for k in _LIBRARY if k not in data)
-        msg = f"{where.at(missing)}: missing; sheathing, fastener and edge_spacing go together"
+        msg = (
+            f"{where.at(missing)}: missing; sheathing, fastener and edge_spacing "
+            "go together"
+        )
         raise ConfigError(msg)
     if library and "nominal_unit_shear" in data:
         msg = (
@@ -167,7 +211,9 @@ def _capacity(
     return None, None, ""
 
 
-def _check_kind_keys(kind: AssemblyKind, data: Mapping[str, Any], where: rd.Where) -> None:
+def _check_kind_keys(
+    kind: AssemblyKind, data: Mapping[str, Any], where: rd.Where
+) -> None:
     allowed = (*_COMMON, *_BY_KIND[kind])
     for key in data:
         if key not in allowed:
@@ -178,9 +224,7 @@ def _check_kind_keys(kind: AssemblyKind, data: Mapping[str, Any], where: rd.Wher
             raise ConfigError(msg)
 
 
-def _assembly(
-    data: object, where: rd.Where, basis: DesignBasis
-) -> Assembly:
+def _assembly(data: object, where: rd.Where, basis: DesignBasis) -> Assembly:
     table = rd.check_keys(data, where, _ALL, required=("name", "kind"))
     name = rd.string(table, "name", where).strip()
     kind = rd.choice(table, "kind", where, AssemblyKind, default=rd.MISSING)
@@ -189,14 +233,10 @@ def _assembly(
     concrete = _concrete(table, where) if kind is AssemblyKind.CONCRETE else None
     capacity, nominal, source = _capacity(name, kind, table, where, basis)
     if capacity is None and concrete is None:
-        ways = (
-            "unit_shear_capacity, or fc, fy and rho_t"
-            if kind is AssemblyKind.CONCRETE
-            else "unit_shear_capacity, nominal_unit_shear, or sheathing/fastener/edge_spacing"
-            if kind in (AssemblyKind.WOOD_PANEL, AssemblyKind.GYPSUM)
-            else "unit_shear_capacity"
+        msg = (
+            f"{where.file}: {where.table}: assembly {name!r} has no capacity: "
+            f"give {_WAYS.get(kind, 'unit_shear_capacity')}"
         )
-        msg = f"{where.file}: {where.table}: assembly {name!r} has no capacity: give {ways}"
         raise ConfigError(msg)
     if concrete is not None and source != "user":
         source = "ACI 318-19 §18.10.4"
@@ -204,8 +244,10 @@ def _assembly(
         name=name,
         kind=kind,
         match=match,
-        properties=_properties(name, kind, table, where, concrete),
-        unit_shear_capacity=capacity if source == "user" or concrete is None else None,
+        properties=_properties(
+            name, kind, table, where, concrete=concrete, capacity=capacity
+        ),
+        unit_shear_capacity=capacity,
         nominal_unit_shear=nominal,
         capacity_source=source,
         concrete=concrete,
@@ -233,7 +275,8 @@ def parse_assemblies(
         ConfigError: Any malformed entry; the message names the file and key.
     """
     if not isinstance(value, list):
-        raise where.error("assemblies", value, "expected [[assemblies]] tables")
+        err = where.error("assemblies", value, "expected [[assemblies]] tables")
+        raise err
     out: list[Assembly] = []
     seen: dict[str, int] = {}
     for i, data in enumerate(value):

@@ -127,9 +127,7 @@ def string(
     return value
 
 
-def string_list(
-    data: Mapping[str, Any], key: str, where: Where
-) -> tuple[str, ...]:
+def string_list(data: Mapping[str, Any], key: str, where: Where) -> tuple[str, ...]:
     """A list of distinct non-empty strings (empty when absent)."""
     value = data.get(key, [])
     if not isinstance(value, list) or not all(
@@ -166,7 +164,11 @@ def choice(
 
 
 def _check_sign(
-    value: float, key: str, where: Where, shown: object, minimum: float | None,
+    value: float,
+    key: str,
+    where: Where,
+    shown: object,
+    minimum: float | None,
     strict: bool,
 ) -> None:
     if minimum is None:
@@ -224,7 +226,7 @@ def quantity(
 def named_quantities(
     data: Mapping[str, Any], key: str, where: Where, units: str
 ) -> tuple[tuple[str, float], ...] | None:
-    """A table of ``name = quantity`` (None when absent), values >= 0, in given order."""
+    """A table of ``name = quantity`` (None when absent), values >= 0, in order."""
     if key not in data:
         return None
     table = data[key]

@@ -90,8 +90,10 @@ def _concrete_unit_capacity(
         logger.debug("concrete wall without usable geometry %s: no capacity", geometry)
         return None
     # Vn = Acv * vn with Acv = length * thickness, so Vn / length = thickness * vn.
-    design = PHI_SHEAR_SPECIAL_WALL * thickness * concrete_nominal_shear_stress(
-        params, height / length
+    design = (
+        PHI_SHEAR_SPECIAL_WALL
+        * thickness
+        * concrete_nominal_shear_stress(params, height / length)
     )
     if DesignBasis(basis) is DesignBasis.ASD:
         return ASD_SEISMIC_FACTOR * design

@@ -46,7 +46,10 @@ _DIMENSIONS: Final = {
     ),
     ureg.parse_units("Pa").dimensionality: ("a pressure", "'15 psf' or '0.72 kPa'"),
     ureg.parse_units("m").dimensionality: ("a length", "'0.5 m' or '6 in'"),
-    ureg.parse_units("m**2").dimensionality: ("an area", "'8.25 in**2' or '0.005 m**2'"),
+    ureg.parse_units("m**2").dimensionality: (
+        "an area",
+        "'8.25 in**2' or '0.005 m**2'",
+    ),
     ureg.parse_units("s").dimensionality: ("a time", "'8 s'"),
     ureg.parse_units("N*m").dimensionality: ("a moment", "'12 kip*ft' or '16 kN*m'"),
     ureg.parse_units("N/m**3").dimensionality: ("a unit weight", "'150 pcf'"),
@@ -98,13 +101,17 @@ def _describe(units: pint.Unit) -> tuple[str, str]:
 
 def _parse_units(text: str, unit_text: str, *, where: str) -> pint.Unit:
     if _POWER_CHAIN.search(unit_text):
-        msg = f"{where} = {show_value(text)}: nested powers in the unit are not supported"
+        msg = (
+            f"{where} = {show_value(text)}: nested powers in the unit are not supported"
+        )
         raise ConfigError(msg)
     try:
         return ureg.parse_units(unit_text.strip())
     except Exception as exc:  # pint raises many types (TokenError, AssertionError, ...)
-        msg = f"{where} = {show_value(text)}: cannot read the unit {unit_text.strip()!r} ({exc})"
-        raise ConfigError(msg.replace("\n", " ")) from exc
+        detail = show_value(str(exc), 70).strip("'\"")
+        unit = show_value(unit_text.strip(), 30)
+        msg = f"{where} = {show_value(text)}: cannot read the unit {unit}: {detail}"
+        raise ConfigError(msg) from exc
 
 
 def parse_quantity(
@@ -130,9 +137,9 @@ def parse_quantity(
             value that is not finite. The message is one line and names ``where``.
     """
     target = ureg.parse_units(expected_dimension_units)
-    want, example = _describe(target)
+    _, example = _describe(target)
     if isinstance(text, bool) or not isinstance(text, int | float | str):
-        msg = f"{where} = {show_value(text)}: expected a quantity string such as {example}"
+        msg = f"{where} = {show_value(text)}: expected a quantity such as {example}"
         raise ConfigError(msg)
     if not isinstance(text, str):
         msg = f"{where} = {show_value(text)}: has no unit; write e.g. {example}"
@@ -142,7 +149,10 @@ def parse_quantity(
         raise ConfigError(msg)
     found = _NUMBER.fullmatch(text)
     if found is None:
-        msg = f"{where} = {show_value(text)}: cannot read it; write a number and a unit, e.g. {example}"
+        msg = (
+            f"{where} = {show_value(text)}: cannot read it; write a number and a "
+            f"unit, e.g. {example}"
+        )
         raise ConfigError(msg)
     magnitude = float(found.group(1))
     if not math.isfinite(magnitude):
@@ -165,7 +175,10 @@ def _convert(
     wrong_angle = is_angle_target and got != "an angle"
     if units.dimensionality != target.dimensionality or wrong_angle:
         hint = " (write 'lbf' or 'kip' for a force)" if got == "a mass" else ""
-        msg = f"{where} = {show_value(text)}: that is {got}, expected {want} such as {example}{hint}"
+        msg = (
+            f"{where} = {show_value(text)}: that is {got}, expected {want} such as "
+            f"{example}{hint}"
+        )
         raise ConfigError(msg)
     try:
         value = float(Q_(magnitude, units).m_as(target))
@@ -173,7 +186,9 @@ def _convert(
         msg = f"{where} = {show_value(text)}: cannot convert it to {target} ({exc})"
         raise ConfigError(msg.replace("\n", " ")) from exc
     if not math.isfinite(value):
-        msg = f"{where} = {show_value(text)}: not a finite quantity; write e.g. {example}"
+        msg = (
+            f"{where} = {show_value(text)}: not a finite quantity; write e.g. {example}"
+        )
         raise ConfigError(msg)
     return value
 
@@ -227,7 +242,10 @@ def format_value(
         return f"{value} {label}"
     if value == 0:
         return f"0 {label}"
-    decimals = min(12, max(0, digits - 1 - math.floor(math.log10(abs(value)))))
+    rounded = float(f"{value:.{digits}g}")  # 9.9999999 -> 10.0 before counting digits
+    if rounded == 0:
+        return f"0 {label}"
+    decimals = min(12, max(0, digits - 1 - math.floor(math.log10(abs(rounded)))))
     text = f"{value:.{decimals}f}"
     if text.lstrip("-").strip("0.") == "":
         text = "0"

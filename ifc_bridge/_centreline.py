@@ -82,7 +82,11 @@ def centreline(
         return None
     origin = pts[0].copy()
     local = pts - origin
-    d = np.asarray(direction, dtype=np.float64) if direction is not None else _mrr_direction(local)
+    d = (
+        np.asarray(direction, dtype=np.float64)
+        if direction is not None
+        else _mrr_direction(local)
+    )
     if d is None:
         return None
     n = np.array([-d[1], d[0]])

@@ -41,7 +41,8 @@ class Extrusion:
 
 
 def placement_matrix(
-    placement: ifcopenshell.entity_instance | None, cache: dict[int, NDArray[np.float64]]
+    placement: ifcopenshell.entity_instance | None,
+    cache: dict[int, NDArray[np.float64]],
 ) -> NDArray[np.float64]:
     """4x4 world matrix of an IfcLocalPlacement chain, memoised (file units).
 
@@ -61,7 +62,9 @@ def placement_matrix(
         return found
     if placement.is_a("IfcLocalPlacement"):
         parent = placement_matrix(placement.PlacementRelTo, cache)
-        m = parent @ ifcopenshell.util.placement.get_axis2placement(placement.RelativePlacement)
+        m = parent @ ifcopenshell.util.placement.get_axis2placement(
+            placement.RelativePlacement
+        )
     else:
         m = ifcopenshell.util.placement.get_local_placement(placement)
     cache[placement.id()] = m
@@ -121,7 +124,9 @@ def _item_extrusion(
         h = np.c_[c, np.zeros(len(c)), np.ones(len(c))]
         return (m @ h.T).T[:, :2]
 
-    world = Polygon(to_world(poly.exterior.coords), [to_world(i.coords) for i in poly.interiors])
+    world = Polygon(
+        to_world(poly.exterior.coords), [to_world(i.coords) for i in poly.interiors]
+    )
     z0 = float(m[2, 3])
     z1 = z0 + float(np.sign(d[2])) * float(item.Depth)
     return world, min(z0, z1), max(z0, z1), float(item.Depth)
@@ -159,7 +164,9 @@ def body_extrusion(
         depths.append(depth)
     if not polys:
         return None
-    footprint = shapely.affinity.scale(shapely.union_all(polys), scale, scale, origin=(0, 0))
+    footprint = shapely.affinity.scale(
+        shapely.union_all(polys), scale, scale, origin=(0, 0)
+    )
     return Extrusion(
         footprint=footprint,
         zmin=min(zs) * scale,

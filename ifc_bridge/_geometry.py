@@ -99,7 +99,9 @@ def _run_iterator(
 
 def _mesh_one(element: ifcopenshell.entity_instance, kernel: str) -> Mesh | None:
     try:
-        shape = ifcopenshell.geom.create_shape(_settings(), element, geometry_library=kernel)
+        shape = ifcopenshell.geom.create_shape(
+            _settings(), element, geometry_library=kernel
+        )
     except Exception as exc:  # ifcopenshell raises bare Exception when a body fails
         _LOG.debug("%s: %s failed: %s", element.GlobalId, kernel, exc)
         return None

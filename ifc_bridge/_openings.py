@@ -92,22 +92,49 @@ def wall_openings(
         op = rel.RelatedOpeningElement
         pts = opening_points(op, meshes, scale, cache)
         if pts is None:
-            msg = (f"{path}: opening {op.GlobalId} in wall {wall.GlobalId} has no usable "
-                   "geometry; not counted; give it a solid 'Body' representation")
-            issues.append(ImportIssue(code="opening_no_geometry", severity=IssueSeverity.WARNING,
-                                      message=msg, guids=(op.GlobalId, wall.GlobalId)))
+            msg = (
+                f"{path}: opening {op.GlobalId} in wall {wall.GlobalId} has no usable "
+                "geometry; not counted; give it a solid 'Body' representation"
+            )
+            issues.append(
+                ImportIssue(
+                    code="opening_no_geometry",
+                    severity=IssueSeverity.WARNING,
+                    message=msg,
+                    guids=(op.GlobalId, wall.GlobalId),
+                )
+            )
             continue
         s = (pts[:, :2] - start) @ d
         s0, s1 = max(float(s.min()), 0.0), min(float(s.max()), line.length)
         z0, z1 = max(float(pts[:, 2].min()), base), min(float(pts[:, 2].max()), top)
         if s1 - s0 < _MIN_SIZE or z1 - z0 < _MIN_SIZE:
-            msg = (f"{path}: opening {op.GlobalId} lies outside wall {wall.GlobalId}; ignored; "
-                   "check the opening's placement")
-            issues.append(ImportIssue(code="opening_outside_wall", severity=IssueSeverity.WARNING,
-                                      message=msg, guids=(op.GlobalId, wall.GlobalId)))
+            msg = (
+                f"{path}: opening {op.GlobalId} lies outside wall {wall.GlobalId}; "
+                "ignored; "
+                "check the opening's placement"
+            )
+            issues.append(
+                ImportIssue(
+                    code="opening_outside_wall",
+                    severity=IssueSeverity.WARNING,
+                    message=msg,
+                    guids=(op.GlobalId, wall.GlobalId),
+                )
+            )
             continue
-        fills = tuple(sorted(r.RelatedBuildingElement.GlobalId for r in op.HasFillings or ()))
-        out.append(Opening(guid=op.GlobalId, start=s0, end=s1, bottom=z0 - base,
-                           top=z1 - base, filled_by=fills))
+        fills = tuple(
+            sorted(r.RelatedBuildingElement.GlobalId for r in op.HasFillings or ())
+        )
+        out.append(
+            Opening(
+                guid=op.GlobalId,
+                start=s0,
+                end=s1,
+                bottom=z0 - base,
+                top=z1 - base,
+                filled_by=fills,
+            )
+        )
     out.sort(key=lambda o: (o.start, o.end, o.guid))
     return WallOpenings(openings=tuple(out), issues=tuple(issues))

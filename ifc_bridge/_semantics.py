@@ -1,4 +1,4 @@
-"""Semantics of an element from its attributes: type, predefined type, materials, psets."""
+"""Semantics of an element from its attributes: type, predefined type, materials."""
 
 from __future__ import annotations
 
@@ -64,7 +64,9 @@ def _layer_thickness(wall: ifcopenshell.entity_instance, scale: float) -> float 
 
 def _properties(element: ifcopenshell.entity_instance) -> tuple[tuple[str, str], ...]:
     flat = []
-    for pset, props in ifcopenshell.util.element.get_psets(element, psets_only=True).items():
+    for pset, props in ifcopenshell.util.element.get_psets(
+        element, psets_only=True
+    ).items():
         for key, value in props.items():
             if key != "id":
                 flat.append((f"{pset}.{key}", str(value)))

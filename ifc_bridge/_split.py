@@ -1,14 +1,17 @@
 """Split a wall into story-high segments at the diaphragm levels it runs through.
 
 A diaphragm level cuts a wall when its elevation is more than 0.05 m above the base
-and more than 0.15 m below the top (walls usually stop at the slab underside).
+(and above the storey the wall stands on) and more than 0.15 m below the top.
 A segment supports the next diaphragm level above its base whose elevation is at
-most 0.15 m above the segment top. Elevations in metres, Z up.
+most its ``reach`` above the segment top: 0.15 m, or the depth of the level's slabs
+below its elevation plus 0.05 m when that is more (walls usually stop at the slab
+underside). Elevations in metres, Z up.
 """
 
 from __future__ import annotations
 
 import dataclasses
+from collections.abc import Mapping
 
 from ifc_bridge.model import Level, Opening, WallSegment
 
@@ -16,10 +19,15 @@ __all__ = ["BASE_TOL", "TOP_TOL", "split_wall", "supported_level"]
 
 BASE_TOL = 0.05  # [m]
 TOP_TOL = 0.15  # [m]
+_EPS = 1e-6  # [m]; float noise (3.85 + 0.15 < 4.0)
 
 
 def supported_level(
-    diaphragm_levels: tuple[Level, ...], *, above: float, top: float
+    diaphragm_levels: tuple[Level, ...],
+    *,
+    above: float,
+    top: float,
+    reach: Mapping[str, float] | None = None,
 ) -> str:
     """Name of the diaphragm level a segment supports, or ``""``.
 
@@ -28,14 +36,17 @@ def supported_level(
     Args:
         diaphragm_levels: Diaphragm levels sorted by elevation.
         above: The level must be higher than this plus 0.05 m [m].
-        top: Segment top; the level may be at most 0.15 m above it [m].
+        top: Segment top [m].
+        reach: Level name -> how far above the top the level may be [m]
+            (default 0.15 m).
 
     Returns:
         Level name, or ``""`` (parapet, wall above the roof).
     """
     for lv in diaphragm_levels:
         if lv.elevation > above + BASE_TOL:
-            return lv.name if lv.elevation <= top + TOP_TOL else ""
+            limit = top + max(TOP_TOL, (reach or {}).get(lv.name, TOP_TOL)) + _EPS
+            return lv.name if lv.elevation <= limit else ""
     return ""
 
 
@@ -54,6 +65,7 @@ def split_wall(
     diaphragm_levels: tuple[Level, ...],
     *,
     storey_elevation: float,
+    reach: Mapping[str, float] | None = None,
 ) -> tuple[WallSegment, ...]:
     """Split a wall at each diaphragm level strictly inside its height.
 
@@ -65,12 +77,15 @@ def split_wall(
             openings relative to its base).
         diaphragm_levels: Diaphragm levels sorted by elevation.
         storey_elevation: Elevation of ``whole.storey`` [m].
+        reach: Level name -> tolerance above a segment top, see
+            :func:`supported_level` [m].
 
     Returns:
         Segments bottom-up, ``part`` 0, 1, ..., each with its ``level`` set.
     """
     base, top = whole.base_elevation, whole.top_elevation
-    cuts = [lv for lv in diaphragm_levels if base + BASE_TOL < lv.elevation < top - TOP_TOL]
+    low = max(base, storey_elevation) + BASE_TOL
+    cuts = [lv for lv in diaphragm_levels if low < lv.elevation < top - TOP_TOL]
     bounds = [base, *(lv.elevation for lv in cuts), top]
     storeys = [whole.storey, *(lv.name for lv in cuts)]
     floors = [max(base, storey_elevation), *(lv.elevation for lv in cuts)]
@@ -82,7 +97,9 @@ def split_wall(
                 whole,
                 part=k,
                 storey=storeys[k],
-                level=supported_level(diaphragm_levels, above=floors[k], top=hi),
+                level=supported_level(
+                    diaphragm_levels, above=floors[k], top=hi, reach=reach
+                ),
                 base_elevation=lo,
                 top_elevation=hi,
                 openings=_rebase(whole.openings, lo - base, hi - base),

@@ -29,14 +29,18 @@ def unfilled_inserts(ifc: ifcopenshell.file) -> list[ifcopenshell.entity_instanc
     return [e for e in found if not (getattr(e, "FillsVoids", None) or ())]
 
 
-def _host(centre: NDArray[np.float64], z0: float, z1: float, plans: Sequence[object]) -> str:
+def _host(
+    centre: NDArray[np.float64], z0: float, z1: float, plans: Sequence[object]
+) -> str:
     for plan in plans:
         line = plan.line
         d = line.direction
         rel = centre - np.asarray(line.start)
         s = float(rel @ d)
         t = abs(float(rel @ np.array([-d[1], d[0]])))
-        inside = -_REACH <= s <= line.length + _REACH and t <= line.thickness / 2 + _REACH
+        inside = (
+            -_REACH <= s <= line.length + _REACH and t <= line.thickness / 2 + _REACH
+        )
         if inside and z0 < plan.top and z1 > plan.base:
             return plan.guid
     return ""
@@ -78,13 +82,30 @@ def unfilled_issues(
         if not host:
             unmatched.append(e.GlobalId)
             continue
-        msg = (f"{path}: {kind} {e.GlobalId} ({e.Name!r}) cuts no opening in wall {host}; "
-               "piers not split; export doors and windows with their openings")
-        issues.append(ImportIssue(code="insert_without_opening", severity=IssueSeverity.INFO,
-                                  message=msg, guids=(e.GlobalId, host)))
+        msg = (
+            f"{path}: {kind} {e.GlobalId} ({e.Name!r}) cuts no opening in wall {host}; "
+            "piers not split; export doors and windows with their openings"
+        )
+        issues.append(
+            ImportIssue(
+                code="insert_without_opening",
+                severity=IssueSeverity.INFO,
+                message=msg,
+                guids=(e.GlobalId, host),
+            )
+        )
     if unmatched:
-        msg = (f"{path}: {len(unmatched)} doors/windows fill no opening and sit in no wall "
-               "found; piers not split; export doors and windows with their openings")
-        issues.append(ImportIssue(code="insert_without_opening", severity=IssueSeverity.INFO,
-                                  message=msg, guids=tuple(sorted(unmatched))))
+        msg = (
+            f"{path}: {len(unmatched)} doors/windows fill no opening and sit in "
+            "no wall "
+            "found; piers not split; export doors and windows with their openings"
+        )
+        issues.append(
+            ImportIssue(
+                code="insert_without_opening",
+                severity=IssueSeverity.INFO,
+                message=msg,
+                guids=tuple(sorted(unmatched)),
+            )
+        )
     return tuple(issues)

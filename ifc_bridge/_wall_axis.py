@@ -35,7 +35,9 @@ class AxisInfo:
     curved: bool
 
 
-def _points(curve: ifcopenshell.entity_instance) -> tuple[list[list[float]] | None, bool]:
+def _points(
+    curve: ifcopenshell.entity_instance,
+) -> tuple[list[list[float]] | None, bool]:
     """2D points of a curve and whether it has curved parts."""
     if curve.is_a("IfcPolyline"):
         return [list(p.Coordinates[:2]) for p in curve.Points], False
@@ -46,7 +48,11 @@ def _points(curve: ifcopenshell.entity_instance) -> tuple[list[list[float]] | No
     if curve.is_a("IfcTrimmedCurve"):
         basis = curve.BasisCurve
         curved = basis.is_a() in _CURVED_BASES or not basis.is_a("IfcLine")
-        pts = [t.Coordinates[:2] for t in (*curve.Trim1, *curve.Trim2) if hasattr(t, "Coordinates")]
+        pts = [
+            t.Coordinates[:2]
+            for t in (*curve.Trim1, *curve.Trim2)
+            if hasattr(t, "Coordinates")
+        ]
         return ([list(p) for p in pts] if len(pts) == 2 else None), curved
     if curve.is_a("IfcCompositeCurve"):
         pts: list[list[float]] = []
@@ -94,7 +100,8 @@ def wall_axis(
         Axis information; ``direction`` None when there is no usable Axis.
     """
     reps = [
-        r for r in (wall.Representation.Representations if wall.Representation else ())
+        r
+        for r in (wall.Representation.Representations if wall.Representation else ())
         if (r.RepresentationIdentifier or "") == "Axis"
     ]
     if not reps:
@@ -113,5 +120,7 @@ def wall_axis(
         if length <= 1e-9:
             return AxisInfo(direction=None, curved=curved)
         d = chord / length
-        return AxisInfo(direction=(float(d[0]), float(d[1])), curved=curved or _turns(world))
+        return AxisInfo(
+            direction=(float(d[0]), float(d[1])), curved=curved or _turns(world)
+        )
     return AxisInfo(direction=None, curved=False)

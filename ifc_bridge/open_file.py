@@ -15,6 +15,7 @@ import re
 from pathlib import Path
 
 import ifcopenshell
+import ifcopenshell.ifcopenshell_wrapper
 
 from ifc_bridge.errors import IfcFileError, IfcSchemaError
 
@@ -26,14 +27,18 @@ SUPPORTED_SCHEMAS = ("IFC2X3", "IFC4", "IFC4X3")
 _MAGIC = b"ISO-10303-21;"
 _TRAILER = b"END-ISO-10303-21;"
 _SCHEMA_RE = re.compile(rb"FILE_SCHEMA\s*\(\s*\(\s*'([^']*)'", re.IGNORECASE)
-_PRE_ADD2_RE = re.compile(rb"(FILE_SCHEMA\s*\(\s*\(\s*')IFC4X3('\s*\)\s*\))", re.IGNORECASE)
+_PRE_ADD2_RE = re.compile(
+    rb"(FILE_SCHEMA\s*\(\s*\(\s*')IFC4X3('\s*\)\s*\))", re.IGNORECASE
+)
 
 
 def _header_schema(path: Path) -> str:
     with path.open("rb") as fh:
         head = fh.read(65536)
     if not head.lstrip().startswith(_MAGIC):
-        kind = "a zip archive (ifcZIP?)" if head.startswith(b"PK") else "not IFC-SPF text"
+        kind = (
+            "a zip archive (ifcZIP?)" if head.startswith(b"PK") else "not IFC-SPF text"
+        )
         if head.lstrip().startswith(b"<"):
             kind = "XML (ifcXML?)"
         msg = (
@@ -43,7 +48,7 @@ def _header_schema(path: Path) -> str:
         raise IfcFileError(msg)
     match = _SCHEMA_RE.search(head)
     if match is None:
-        msg = f"{path}: no FILE_SCHEMA in the header; the file is damaged, export it again"
+        msg = f"{path}: no FILE_SCHEMA in the header; the file is damaged, export again"
         raise IfcFileError(msg)
     return match.group(1).decode("ascii", "replace").upper()
 
@@ -59,6 +64,28 @@ def _check_trailer(path: Path) -> None:
             "copy or export the file again"
         )
         raise IfcFileError(msg)
+
+
+_STAMP_RE = re.compile(r"\[\d{4}-\d\d-\d\d [\d:]+\]\s*")
+
+
+def _check_parse(ifc: ifcopenshell.file, path: Path) -> None:
+    """Raise when ifcopenshell reported a syntax error or read no IfcProject."""
+    log = ifcopenshell.ifcopenshell_wrapper.get_log()
+    errors = [
+        _STAMP_RE.sub("", line)
+        for line in log.splitlines()
+        if line.startswith("[error]")
+    ]
+    if any("[SYN" in e for e in errors) or not ifc.by_type("IfcProject"):
+        first = errors[0] if errors else "no IfcProject"
+        msg = (
+            f"{path}: the IFC data is garbled ({first}; {len(errors)} parse errors); "
+            "export the file again"
+        )
+        raise IfcFileError(msg)
+    for e in errors:
+        _LOG.warning("%s: %s", path, e)
 
 
 def _schema_name(ifc: ifcopenshell.file) -> str:
@@ -78,7 +105,8 @@ def open_ifc(path: str | os.PathLike[str]) -> ifcopenshell.file:
         The parsed file.
 
     Raises:
-        IfcFileError: Missing, unreadable, not IFC-SPF, truncated or unparsable.
+        IfcFileError: Missing, unreadable, not IFC-SPF, truncated, garbled (a syntax
+            error or no IfcProject) or unparsable.
         IfcSchemaError: The header names a schema other than IFC2X3, IFC4, IFC4X3.
     """
     p = Path(path)
@@ -91,7 +119,9 @@ def open_ifc(path: str | os.PathLike[str]) -> ifcopenshell.file:
     except OSError as exc:
         if isinstance(exc, IfcFileError):
             raise
-        msg = f"{p}: cannot read the file ({exc.strerror or exc}); check its permissions"
+        msg = (
+            f"{p}: cannot read the file ({exc.strerror or exc}); check its permissions"
+        )
         raise IfcFileError(msg) from exc
     if not declared.startswith(SUPPORTED_SCHEMAS):
         msg = (
@@ -99,6 +129,7 @@ def open_ifc(path: str | os.PathLike[str]) -> ifcopenshell.file:
             f"{', '.join(SUPPORTED_SCHEMAS)}"
         )
         raise IfcSchemaError(msg)
+    ifcopenshell.ifcopenshell_wrapper.get_log()  # clears messages of earlier reads
     try:
         if declared == "IFC4X3":
             _LOG.info("%s: header schema IFC4X3 read as IFC4X3_ADD2", p)
@@ -107,11 +138,14 @@ def open_ifc(path: str | os.PathLike[str]) -> ifcopenshell.file:
         else:
             ifc = ifcopenshell.open(str(p))
     except ifcopenshell.SchemaError as exc:
-        msg = f"{p}: schema {declared!r} cannot be read ({exc}); export as IFC2X3 or IFC4"
+        msg = (
+            f"{p}: schema {declared!r} cannot be read ({exc}); export as IFC2X3 or IFC4"
+        )
         raise IfcSchemaError(msg) from exc
     except Exception as exc:  # ifcopenshell raises bare Exception / ifcopenshell.Error
         msg = f"{p}: cannot parse the IFC file ({exc}); export it again"
         raise IfcFileError(msg) from exc
+    _check_parse(ifc, p)
     if _schema_name(ifc) not in SUPPORTED_SCHEMAS:
         msg = f"{p}: schema {ifc.schema!r} is not supported; export as IFC2X3 or IFC4"
         raise IfcSchemaError(msg)

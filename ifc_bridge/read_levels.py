@@ -51,12 +51,15 @@ def clean_elevation(value: float) -> float:
     return float(round(value, _ROUND)) + 0.0
 
 
-def _storey_elevation(storey: ifcopenshell.entity_instance, path: str, scale: float) -> float:
+def _storey_elevation(
+    storey: ifcopenshell.entity_instance, path: str, scale: float
+) -> float:
     if storey.Elevation is not None:
         return clean_elevation(float(storey.Elevation) * scale)
     if storey.ObjectPlacement is None:
         msg = (
-            f"{path}: storey {storey.GlobalId} ({storey.Name!r}) has neither Elevation nor "
+            f"{path}: storey {storey.GlobalId} ({storey.Name!r}) has neither "
+            "Elevation nor "
             "ObjectPlacement; give the IfcBuildingStorey an Elevation"
         )
         raise IfcContentError(msg)
@@ -86,7 +89,9 @@ def read_levels(ifc: ifcopenshell.file, path: str, *, scale: float) -> StoreyLev
         msg = f"{path}: has no IfcBuildingStorey; assign the walls and slabs to storeys"
         raise IfcContentError(msg)
     issues: list[ImportIssue] = []
-    raw = [(_storey_elevation(s, path, scale), (s.Name or "").strip(), s) for s in storeys]
+    raw = [
+        (_storey_elevation(s, path, scale), (s.Name or "").strip(), s) for s in storeys
+    ]
     raw.sort(key=lambda t: (t[0], t[1], t[2].GlobalId))
     counts = Counter(name for _, name, _ in raw)
     levels, name_of = [], {}
@@ -95,19 +100,30 @@ def read_levels(ifc: ifcopenshell.file, path: str, *, scale: float) -> StoreyLev
         unique = name
         if not name:
             unique = guid
-            msg = f"{path}: storey {guid} has no Name; called it {guid!r}; name the storey"
-            issues.append(_issue("storey_no_name", IssueSeverity.WARNING, msg, guid, unique))
+            msg = f"{path}: storey {guid} has no Name; called it {guid!r}; name it"
+            issues.append(
+                _issue("storey_no_name", IssueSeverity.WARNING, msg, guid, unique)
+            )
         elif counts[name] > 1:
             unique = f"{name} ({guid})"
             msg = (
-                f"{path}: storey name {name!r} is used {counts[name]} times; storey {guid} "
+                f"{path}: storey name {name!r} is used {counts[name]} times; "
+                f"storey {guid} "
                 f"read as {unique!r}; give each storey its own name"
             )
-            issues.append(_issue("storey_duplicate_name", IssueSeverity.WARNING, msg, guid, unique))
+            issues.append(
+                _issue(
+                    "storey_duplicate_name", IssueSeverity.WARNING, msg, guid, unique
+                )
+            )
         levels.append(Level(name=unique, guid=guid, elevation=elevation, index=index))
         name_of[storey.id()] = unique
     return StoreyLevels(levels=tuple(levels), name_of=name_of, issues=tuple(issues))
 
 
-def _issue(code: str, severity: IssueSeverity, message: str, guid: str, storey: str) -> ImportIssue:
-    return ImportIssue(code=code, severity=severity, message=message, guids=(guid,), storey=storey)
+def _issue(
+    code: str, severity: IssueSeverity, message: str, guid: str, storey: str
+) -> ImportIssue:
+    return ImportIssue(
+        code=code, severity=severity, message=message, guids=(guid,), storey=storey
+    )

@@ -15,7 +15,7 @@ from collections.abc import Callable, Sequence
 
 import ifcopenshell
 
-from ifc_bridge._diaphragms import build_diaphragms
+from ifc_bridge._diaphragms import build_diaphragms, underside_reach
 from ifc_bridge._geometry import mesh_elements
 from ifc_bridge._unfilled import unfilled_inserts, unfilled_issues
 from ifc_bridge.errors import IfcContentError
@@ -39,7 +39,9 @@ def _to_mesh(ifc: ifcopenshell.file, walls: list[ifcopenshell.entity_instance]) 
     roofs = ifc.by_type("IfcRoof")
     openings = []
     for host in (*walls, *slabs, *roofs):
-        openings.extend(rel.RelatedOpeningElement for rel in getattr(host, "HasOpenings", ()) or ())
+        openings.extend(
+            rel.RelatedOpeningElement for rel in getattr(host, "HasOpenings", ()) or ()
+        )
     return [*walls, *slabs, *openings, *unfilled_inserts(ifc)]
 
 
@@ -62,7 +64,8 @@ def read_model(
 
     Common practice: levels from IfcBuildingStorey, diaphragms from FLOOR / ROOF /
     BASESLAB slabs, walls from IfcWall; shear walls by PredefinedType SHEAR or the
-    config's assembly match rules (:func:`ifc_bridge.shear_walls.recognise_shear_walls`).
+    config's assembly match rules
+    (:func:`ifc_bridge.shear_walls.recognise_shear_walls`).
 
     Args:
         path: IFC-SPF file (IFC2X3, IFC4, IFC4X3).
@@ -90,7 +93,7 @@ def read_model(
     storeys = read_levels(ifc, source, scale=scale)
     walls = ifc.by_type("IfcWall")
     if not walls:
-        msg = f"{source}: has no IfcWall; model the walls as IfcWall (not proxies or slabs)"
+        msg = f"{source}: has no IfcWall; model the walls as IfcWall (not proxies)"
         raise IfcContentError(msg)
     meshes = mesh_elements(ifc, _to_mesh(ifc, walls), progress=progress)
     cache: dict = {}
@@ -103,23 +106,49 @@ def read_model(
     if progress is not None:
         progress("slabs", len(plans), len(plans))
     read = read_walls(
-        ifc, source, scale=scale, levels=levels, name_of=storeys.name_of,
-        meshes=meshes, cache=cache,
+        ifc,
+        source,
+        scale=scale,
+        levels=levels,
+        name_of=storeys.name_of,
+        meshes=meshes,
+        cache=cache,
+        reach=underside_reach(diaphragms, plans, levels),
     )
     if progress is not None:
         progress("walls", len(walls), len(walls))
     insert_issues = unfilled_issues(
-        unfilled_inserts(ifc), read.plans, meshes=meshes, scale=scale, cache=cache, path=source
+        unfilled_inserts(ifc),
+        read.plans,
+        meshes=meshes,
+        scale=scale,
+        cache=cache,
+        path=source,
     )
-    segments = recognise_shear_walls(read.segments, rules, use_predefined_type=use_predefined_type)
+    segments = recognise_shear_walls(
+        read.segments, rules, use_predefined_type=use_predefined_type
+    )
     name, guid = _project(ifc)
     issues = (*storeys.issues, *slab_issues, *dia_issues, *read.issues, *insert_issues)
-    _LOG.info("%s: %d levels, %d diaphragms, %d wall segments, %d issues",
-              source, len(levels), len(diaphragms), len(segments), len(issues))
+    _LOG.info(
+        "%s: %d levels, %d diaphragms, %d wall segments, %d issues",
+        source,
+        len(levels),
+        len(diaphragms),
+        len(segments),
+        len(issues),
+    )
     return BuildingModel(
-        source=source, schema=schema_name(ifc), project_name=name, project_guid=guid,
-        length_unit_scale=scale, levels=levels, diaphragms=diaphragms, walls=segments,
-        ifc_wall_count=len(walls), issues=issues,
+        source=source,
+        schema=schema_name(ifc),
+        project_name=name,
+        project_guid=guid,
+        length_unit_scale=scale,
+        levels=levels,
+        diaphragms=diaphragms,
+        walls=segments,
+        ifc_wall_count=len(walls),
+        issues=issues,
         storey_guids=tuple((lv.name, lv.guid) for lv in levels),
         wall_storeys=read.wall_storeys,
     )

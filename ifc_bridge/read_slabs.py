@@ -25,7 +25,13 @@ from ifc_bridge._semantics import effective_predefined_type
 from ifc_bridge.model import ImportIssue, IssueSeverity, Level
 from ifc_bridge.read_levels import StoreyLevels, clean_elevation
 
-__all__ = ["DIAPHRAGM_KINDS", "MIN_SLAB_THICKNESS", "SlabPlan", "read_slab_plans", "slab_kind"]
+__all__ = [
+    "DIAPHRAGM_KINDS",
+    "MIN_SLAB_THICKNESS",
+    "SlabPlan",
+    "read_slab_plans",
+    "slab_kind",
+]
 
 DIAPHRAGM_KINDS = ("FLOOR", "ROOF", "BASESLAB")
 MIN_SLAB_THICKNESS = 0.05  # [m]; thinner slabs are floor finishes, not structure
@@ -45,6 +51,7 @@ class SlabPlan:
         net: Plan outline with the openings subtracted [m].
         thickness: Extrusion depth, or z-extent of its mesh [m].
         top: Highest z of the body [m].
+        bottom: Lowest z of the body [m].
         method: ``"extrusion"`` or the kernel name of the mesh used.
     """
 
@@ -56,6 +63,7 @@ class SlabPlan:
     net: Polygon | MultiPolygon
     thickness: float
     top: float
+    bottom: float
     method: str
 
 
@@ -140,7 +148,9 @@ def _openings_plan(
 def _storey_of(
     slab: ifcopenshell.entity_instance, levels: StoreyLevels, zmin: float, path: str
 ) -> tuple[str, ImportIssue | None]:
-    container = ifcopenshell.util.element.get_container(slab, ifc_class="IfcBuildingStorey")
+    container = ifcopenshell.util.element.get_container(
+        slab, ifc_class="IfcBuildingStorey"
+    )
     if container is not None and container.id() in levels.name_of:
         return levels.name_of[container.id()], None
     lv = level_below(levels.levels, zmin)
@@ -150,8 +160,11 @@ def _storey_of(
         "(or its IfcRoof) in a storey"
     )
     issue = ImportIssue(
-        code="slab_not_in_storey", severity=IssueSeverity.WARNING, message=msg,
-        guids=(slab.GlobalId,), storey=lv.name,
+        code="slab_not_in_storey",
+        severity=IssueSeverity.WARNING,
+        message=msg,
+        guids=(slab.GlobalId,),
+        storey=lv.name,
     )
     return lv.name, issue
 
@@ -188,35 +201,74 @@ def read_slab_plans(
         kind = slab_kind(slab)
         if kind is None:
             ptype = effective_predefined_type(slab) or "unset"
-            msg = (f"{path}: slab {slab.GlobalId} ({slab.Name!r}) has PredefinedType {ptype}; "
-                   "not a diaphragm; set FLOOR, ROOF or BASESLAB if it is one")
-            issues.append(ImportIssue(code="slab_not_diaphragm", severity=IssueSeverity.INFO,
-                                      message=msg, guids=(slab.GlobalId,)))
+            msg = (
+                f"{path}: slab {slab.GlobalId} ({slab.Name!r}) has "
+                f"PredefinedType {ptype}; "
+                "not a diaphragm; set FLOOR, ROOF or BASESLAB if it is one"
+            )
+            issues.append(
+                ImportIssue(
+                    code="slab_not_diaphragm",
+                    severity=IssueSeverity.INFO,
+                    message=msg,
+                    guids=(slab.GlobalId,),
+                )
+            )
             continue
         got = _plan(slab, meshes.get(slab.id()), scale, cache)
         if got is None:
-            msg = (f"{path}: slab {slab.GlobalId} ({slab.Name!r}) has no usable body geometry; "
-                   "give it a solid 'Body' representation")
-            issues.append(ImportIssue(code="slab_no_geometry", severity=IssueSeverity.ERROR,
-                                      message=msg, guids=(slab.GlobalId,)))
+            msg = (
+                f"{path}: slab {slab.GlobalId} ({slab.Name!r}) has no usable body "
+                "geometry; "
+                "give it a solid 'Body' representation"
+            )
+            issues.append(
+                ImportIssue(
+                    code="slab_no_geometry",
+                    severity=IssueSeverity.ERROR,
+                    message=msg,
+                    guids=(slab.GlobalId,),
+                )
+            )
             continue
         gross, thickness, zmin, zmax, method = got
         storey, issue = _storey_of(slab, levels, zmin, path)
         if issue is not None:
             issues.append(issue)
         if thickness < MIN_SLAB_THICKNESS:
-            msg = (f"{path}: slab {slab.GlobalId} ({slab.Name!r}) is {thickness * 1000:.0f} mm "
-                   f"thick (< {MIN_SLAB_THICKNESS * 1000:.0f} mm): read as a floor finish, "
-                   "not a diaphragm")
-            issues.append(ImportIssue(code="slab_finish_ignored", severity=IssueSeverity.INFO,
-                                      message=msg, guids=(slab.GlobalId,), storey=storey))
+            msg = (
+                f"{path}: slab {slab.GlobalId} ({slab.Name!r}) is "
+                f"{thickness * 1000:.0f} mm thick (< {MIN_SLAB_THICKNESS * 1000:.0f} mm): "
+                "read as a floor finish, "
+                "not a diaphragm"
+            )
+            issues.append(
+                ImportIssue(
+                    code="slab_finish_ignored",
+                    severity=IssueSeverity.INFO,
+                    message=msg,
+                    guids=(slab.GlobalId,),
+                    storey=storey,
+                )
+            )
             continue
         gross = shapely.make_valid(gross)
         net = gross
         holes = _openings_plan(slab, meshes, scale, cache)
         if holes:
             net = shapely.make_valid(gross.difference(shapely.union_all(holes)))
-        plans.append(SlabPlan(guid=slab.GlobalId, name=slab.Name or "", kind=kind, storey=storey,
-                              gross=gross, net=net, thickness=float(thickness),
-                              top=clean_elevation(zmax), method=method))
+        plans.append(
+            SlabPlan(
+                guid=slab.GlobalId,
+                name=slab.Name or "",
+                kind=kind,
+                storey=storey,
+                gross=gross,
+                net=net,
+                thickness=float(thickness),
+                top=clean_elevation(zmax),
+                bottom=clean_elevation(zmin),
+                method=method,
+            )
+        )
     return tuple(plans), tuple(issues)

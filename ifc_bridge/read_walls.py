@@ -66,8 +66,12 @@ class WallsRead:
     issues: tuple[ImportIssue, ...]
 
 
-def _issue(code: str, severity: IssueSeverity, msg: str, guid: str, storey: str = "") -> ImportIssue:
-    return ImportIssue(code=code, severity=severity, message=msg, guids=(guid,), storey=storey)
+def _issue(
+    code: str, severity: IssueSeverity, msg: str, guid: str, storey: str = ""
+) -> ImportIssue:
+    return ImportIssue(
+        code=code, severity=severity, message=msg, guids=(guid,), storey=storey
+    )
 
 
 def _body(
@@ -86,20 +90,32 @@ def _body(
 
 
 def _thickness(
-    wall: ifcopenshell.entity_instance, line: Centreline, sem: WallSemantics,
-    curved: bool, path: str, issues: list[ImportIssue],
+    wall: ifcopenshell.entity_instance,
+    line: Centreline,
+    sem: WallSemantics,
+    curved: bool,
+    path: str,
+    issues: list[ImportIssue],
 ) -> float:
     layers = sem.layer_thickness
     if curved:
         thickness = layers if layers is not None else line.thickness
-        msg = (f"{path}: wall {wall.GlobalId} ({sem.name!r}) is curved; read as its chord "
-               f"{line.length:.3f} m long, {thickness:.3f} m thick; split it into straight walls")
+        msg = (
+            f"{path}: wall {wall.GlobalId} ({sem.name!r}) is curved; read as its chord "
+            f"{line.length:.3f} m long, {thickness:.3f} m thick; "
+            "split it into straight walls"
+        )
         issues.append(_issue("wall_curved", IssueSeverity.WARNING, msg, wall.GlobalId))
         return thickness
     if layers is not None and abs(layers - line.thickness) > _THICKNESS_TOL:
-        msg = (f"{path}: wall {wall.GlobalId} ({sem.name!r}) is {line.thickness:.3f} m thick in "
-               f"its geometry but its material layers total {layers:.3f} m; the geometry is used")
-        issues.append(_issue("wall_thickness_mismatch", IssueSeverity.INFO, msg, wall.GlobalId))
+        msg = (
+            f"{path}: wall {wall.GlobalId} ({sem.name!r}) is {line.thickness:.3f} m "
+            f"thick in its geometry but its material layers total {layers:.3f} m; "
+            "the geometry is used"
+        )
+        issues.append(
+            _issue("wall_thickness_mismatch", IssueSeverity.INFO, msg, wall.GlobalId)
+        )
     return line.thickness
 
 
@@ -109,39 +125,87 @@ def _read_one(
 ) -> tuple[str, tuple[WallSegment, ...], WallPlan | None, list[ImportIssue]]:
     issues: list[ImportIssue] = []
     guid = wall.GlobalId
-    container = ifcopenshell.util.element.get_container(wall, ifc_class="IfcBuildingStorey")
+    container = ifcopenshell.util.element.get_container(
+        wall, ifc_class="IfcBuildingStorey"
+    )
     storey = ctx.name_of.get(container.id(), "") if container is not None else ""
     body = _body(wall, ctx.meshes, ctx.scale, ctx.cache)
     if body is None:
-        msg = (f"{ctx.path}: wall {guid} ({wall.Name!r}) has no usable body geometry; not "
-               "analysed; give it a solid 'Body' representation")
-        return storey, (), None, [_issue("wall_no_geometry", IssueSeverity.ERROR, msg, guid, storey)]
+        msg = (
+            f"{ctx.path}: wall {guid} ({wall.Name!r}) has no usable body geometry; not "
+            "analysed; give it a solid 'Body' representation"
+        )
+        return (
+            storey,
+            (),
+            None,
+            [_issue("wall_no_geometry", IssueSeverity.ERROR, msg, guid, storey)],
+        )
     pts, base, top = body
     axis = wall_axis(wall, ctx.cache)
     line = centreline(pts, None if axis.curved else axis.direction)
-    if line is None or line.length < _MIN_LENGTH or line.thickness <= 0.0 or top - base <= 0.0:
-        msg = (f"{ctx.path}: wall {guid} ({wall.Name!r}) has zero length, thickness or height "
-               "in its geometry; not analysed; fix its 'Body' representation")
-        return storey, (), None, [_issue("wall_no_geometry", IssueSeverity.ERROR, msg, guid, storey)]
+    if (
+        line is None
+        or line.length < _MIN_LENGTH
+        or line.thickness <= 0.0
+        or top - base <= 0.0
+    ):
+        msg = (
+            f"{ctx.path}: wall {guid} ({wall.Name!r}) has zero length, thickness or "
+            "height "
+            "in its geometry; not analysed; fix its 'Body' representation"
+        )
+        return (
+            storey,
+            (),
+            None,
+            [_issue("wall_no_geometry", IssueSeverity.ERROR, msg, guid, storey)],
+        )
     sem = wall_semantics(wall, ctx.scale)
     thickness = _thickness(wall, line, sem, axis.curved, ctx.path, issues)
     if not storey:
         lv = level_below(ctx.levels, base)
         storey = lv.name
-        msg = (f"{ctx.path}: wall {guid} ({sem.name!r}) is in no storey; read as standing on "
-               f"{storey!r} from its base z = {base:.3f} m; contain it in a storey")
-        issues.append(_issue("wall_not_in_storey", IssueSeverity.WARNING, msg, guid, storey))
-    ops = wall_openings(wall, line, base=base, top=top, meshes=ctx.meshes, scale=ctx.scale,
-                        cache=ctx.cache, path=ctx.path)
+        msg = (
+            f"{ctx.path}: wall {guid} ({sem.name!r}) is in no storey; read as "
+            "standing on "
+            f"{storey!r} from its base z = {base:.3f} m; contain it in a storey"
+        )
+        issues.append(
+            _issue("wall_not_in_storey", IssueSeverity.WARNING, msg, guid, storey)
+        )
+    ops = wall_openings(
+        wall,
+        line,
+        base=base,
+        top=top,
+        meshes=ctx.meshes,
+        scale=ctx.scale,
+        cache=ctx.cache,
+        path=ctx.path,
+    )
     issues.extend(ops.issues)
     whole = WallSegment(
-        guid=guid, name=sem.name, storey=storey, level="", base_elevation=base,
-        top_elevation=top, start=line.start, end=line.end, thickness=thickness,
-        openings=ops.openings, type_name=sem.type_name, materials=sem.materials,
-        predefined_type=sem.predefined_type, properties=sem.properties, curved=axis.curved,
+        guid=guid,
+        name=sem.name,
+        storey=storey,
+        level="",
+        base_elevation=base,
+        top_elevation=top,
+        start=line.start,
+        end=line.end,
+        thickness=thickness,
+        openings=ops.openings,
+        type_name=sem.type_name,
+        materials=sem.materials,
+        predefined_type=sem.predefined_type,
+        properties=sem.properties,
+        curved=axis.curved,
     )
     storey_elevation = next(lv.elevation for lv in ctx.levels if lv.name == storey)
-    parts = split_wall(whole, ctx.diaphragm_levels, storey_elevation=storey_elevation)
+    parts = split_wall(
+        whole, ctx.diaphragm_levels, storey_elevation=storey_elevation, reach=ctx.reach
+    )
     return storey, parts, WallPlan(guid=guid, line=line, base=base, top=top), issues
 
 
@@ -154,6 +218,7 @@ class _Context:
     name_of: Mapping[int, str]
     meshes: Mapping[int, Mesh]
     cache: dict[int, NDArray[np.float64]]
+    reach: Mapping[str, float]
 
 
 def read_walls(
@@ -165,6 +230,7 @@ def read_walls(
     name_of: Mapping[int, str],
     meshes: Mapping[int, Mesh],
     cache: dict[int, NDArray[np.float64]],
+    reach: Mapping[str, float] | None = None,
 ) -> WallsRead:
     """Wall segments of every IfcWall, split at the diaphragm levels they pass.
 
@@ -179,14 +245,21 @@ def read_walls(
         name_of: IfcBuildingStorey entity id -> level name.
         meshes: Meshes by entity id, world coordinates [m].
         cache: Placement memo.
+        reach: Level name -> how far below a level a wall top may stop and still
+            support it (slab depth + 0.05 m, at least 0.15 m) [m].
 
     Returns:
         Segments, the storey of every wall, plan rectangles and issues.
     """
     ctx = _Context(
-        path=path, scale=scale, levels=levels,
+        path=path,
+        scale=scale,
+        levels=levels,
         diaphragm_levels=tuple(lv for lv in levels if lv.is_diaphragm_level),
-        name_of=name_of, meshes=meshes, cache=cache,
+        name_of=name_of,
+        meshes=meshes,
+        cache=cache,
+        reach=dict(reach or {}),
     )
     segments: list[WallSegment] = []
     storeys: list[tuple[str, str]] = []
@@ -199,5 +272,9 @@ def read_walls(
         issues.extend(found)
         if plan is not None:
             plans.append(plan)
-    return WallsRead(segments=tuple(segments), wall_storeys=tuple(storeys),
-                     plans=tuple(plans), issues=tuple(issues))
+    return WallsRead(
+        segments=tuple(segments),
+        wall_storeys=tuple(storeys),
+        plans=tuple(plans),
+        issues=tuple(issues),
+    )

@@ -34,10 +34,16 @@ def length_unit_scale(ifc: ifcopenshell.file, path: str) -> float:
     try:
         scale = ifcopenshell.util.unit.calculate_unit_scale(ifc, "LENGTHUNIT")
     except Exception as exc:  # ifcopenshell raises bare Exception on odd units
-        msg = f"{path}: length unit cannot be read ({exc}); give the project an IfcSIUnit LENGTHUNIT"
+        msg = (
+            f"{path}: length unit cannot be read ({exc}); "
+            "give the project an IfcSIUnit LENGTHUNIT"
+        )
         raise UnitsError(msg) from exc
     scale = float(scale)
     if not (math.isfinite(scale) and scale > 0.0):
-        msg = f"{path}: length unit scale {scale} is not a positive number; fix the IfcUnitAssignment"
+        msg = (
+            f"{path}: length unit scale {scale} is not a positive number; "
+            "fix the IfcUnitAssignment"
+        )
         raise UnitsError(msg)
     return scale

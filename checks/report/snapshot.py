@@ -27,7 +27,7 @@ _HOLE_RGB = (120, 150, 200)
 _SLAB_FILL = (232, 238, 248)
 _SLAB_HIGHLIGHT_FILL = (250, 220, 220)
 _INK = (0, 0, 0)
-_MARGIN = 40  # [px]
+_MARGIN = 60  # [px]
 _NICE = (1.0, 2.0, 5.0)
 
 
@@ -112,14 +112,14 @@ def _draw_walls(draw: ImageDraw.ImageDraw, plan: _Plan, walls: Sequence[WallSegm
 
 def _draw_axes(draw: ImageDraw.ImageDraw, plan: _Plan) -> None:
     """X and Y arrows in the top-left corner; Y is plan north."""
-    ox, oy, arm = 20.0, 60.0, 35.0
+    ox, oy, arm = 15.0, 52.0, 35.0
     font = _font()
     draw.line([(ox, oy), (ox + arm, oy)], fill=_INK, width=2)
     draw.polygon([(ox + arm + 6, oy), (ox + arm, oy - 4), (ox + arm, oy + 4)], fill=_INK)
     draw.text((ox + arm + 9, oy - 6), "X", fill=_INK, font=font)
     draw.line([(ox, oy), (ox, oy - arm)], fill=_INK, width=2)
     draw.polygon([(ox, oy - arm - 6), (ox - 4, oy - arm), (ox + 4, oy - arm)], fill=_INK)
-    draw.text((ox + 6, oy - arm - 12), "Y (N)", fill=_INK, font=font)
+    draw.text((ox + 6, oy - arm - 12), "Y", fill=_INK, font=font)
 
 
 def _draw_scale_bar(draw: ImageDraw.ImageDraw, plan: _Plan) -> None:

@@ -56,8 +56,16 @@ def pier_force(allocation: Allocation, pier_id: str) -> float:
     env = allocation.envelope.get(pier_id)
     if env is not None:
         return float(abs(env.envelope))
-    forces = [abs(r.pier_forces[pier_id]) for r in allocation.flexible if pier_id in r.pier_forces]
-    forces += [abs(r.pier_forces[pier_id]) for r in allocation.rigid if pier_id in r.pier_forces]
+    forces = [
+        abs(r.pier_forces[pier_id])
+        for r in allocation.flexible
+        if pier_id in r.pier_forces
+    ]
+    forces += [
+        abs(r.pier_forces[pier_id])
+        for r in allocation.rigid
+        if pier_id in r.pier_forces
+    ]
     return float(max(forces, default=0.0))
 
 

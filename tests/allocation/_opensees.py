@@ -21,8 +21,13 @@ from types import ModuleType
 
 import pytest
 
-_LIBS = ("libquadmath.so.0", "libgfortran.so.4", "libgomp.so.1", "libblas.so.3",
-         "liblapack.so.3")  # order matters: each needs the ones before it
+_LIBS = (
+    "libquadmath.so.0",
+    "libgfortran.so.4",
+    "libgomp.so.1",
+    "libblas.so.3",
+    "liblapack.so.3",
+)  # order matters: each needs the ones before it
 
 _cache: dict[str, ModuleType | str] = {}
 
@@ -77,8 +82,9 @@ def solve_story(
         ops.fix(top, 0, 0, 1, 1, 1, 0)
         ops.fix(base, 1, 1, 1, 1, 1, 1)
         ops.uniaxialMaterial("Elastic", 1 + i, k)
-        ops.element("zeroLength", 1 + i, base, top, "-mat", 1 + i,
-                    "-dir", 1 if d == "X" else 2)
+        ops.element(
+            "zeroLength", 1 + i, base, top, "-mat", 1 + i, "-dir", 1 if d == "X" else 2
+        )
         tops.append(top)
     ops.rigidDiaphragm(3, 1, *tops)
     ops.timeSeries("Linear", 1)
@@ -94,8 +100,10 @@ def solve_story(
     if ops.analyze(1) != 0:
         pytest.fail("OpenSees static analysis did not converge")
     # element force at node j (the top), global components: index 6 = X, 7 = Y
-    out = {name: float(ops.eleResponse(1 + i, "force")[6 if d == "X" else 7])
-           for i, (name, d, *_rest) in enumerate(walls)}
+    out = {
+        name: float(ops.eleResponse(1 + i, "force")[6 if d == "X" else 7])
+        for i, (name, d, *_rest) in enumerate(walls)
+    }
     disp = ops.nodeDisp(1)
     ops.wipe()
     return out, (float(disp[0]), float(disp[1]), float(disp[5]))

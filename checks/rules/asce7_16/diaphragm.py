@@ -29,10 +29,22 @@ from dataclasses import dataclass
 
 from shapely.geometry import Point
 
-from allocation.results import Allocation, DiaphragmPiece, FlexibleResult, ResistanceLine
+from allocation.results import (
+    Allocation,
+    DiaphragmPiece,
+    FlexibleResult,
+    ResistanceLine,
+)
 from checks.findings import Finding, Severity
 from checks.project import ProjectConfig
-from checks.rules._support import fmt, level_guids, level_load, line_guids, perp, unique_sorted
+from checks.rules._support import (
+    fmt,
+    level_guids,
+    level_load,
+    line_guids,
+    perp,
+    unique_sorted,
+)
 from checks.rules.asce7_16.load_combinations import seismic_factor
 from checks.rules.asce7_16.seismic_design_category import seismic_design_category
 from ifc_bridge.model import BuildingModel, Direction
@@ -145,16 +157,24 @@ def _reactions(
                 out[(line_id, piece.diaphragm)][side] += abs(share) * scale
     for pl in fr.point_loads:
         shares = [(lid, s) for lid, s in pl.shares if lid in lines]
-        if len(shares) == 1 and abs(pl.location[ax] - lines[shares[0][0]].offset) <= tol:
+        if (
+            len(shares) == 1
+            and abs(pl.location[ax] - lines[shares[0][0]].offset) <= tol
+        ):
             continue  # stacks on the line below: no diaphragm shear
-        host = next((p.diaphragm for p in fr.pieces if p.polygon.covers(Point(pl.location))), None)
+        host = next(
+            (p.diaphragm for p in fr.pieces if p.polygon.covers(Point(pl.location))),
+            None,
+        )
         for lid, s in shares:
             dia = host or (lines[lid].crossings[0][0] if lines[lid].crossings else "")
             out[(lid, dia)][_side(pl.location[ax], lines[lid].offset)] += abs(s)
     return out
 
 
-def _chord(piece: DiaphragmPiece, lines: dict[str, ResistanceLine], F: float) -> Chord | None:
+def _chord(
+    piece: DiaphragmPiece, lines: dict[str, ResistanceLine], F: float
+) -> Chord | None:
     ax = perp(piece.direction)
     sup = [lines[s] for s in piece.supports if s in lines]
     if len(sup) == 2:
@@ -168,12 +188,22 @@ def _chord(piece: DiaphragmPiece, lines: dict[str, ResistanceLine], F: float) ->
         return None
     depth = float(piece.polygon.area) / span
     M = F * span / (2.0 if cant else 8.0)
-    return Chord(piece=piece.id, diaphragm=piece.diaphragm, level=piece.level,
-                 direction=piece.direction, span=float(span), depth=depth, moment=float(M),
-                 force=float(M / depth), cantilever=cant)
+    return Chord(
+        piece=piece.id,
+        diaphragm=piece.diaphragm,
+        level=piece.level,
+        direction=piece.direction,
+        span=float(span),
+        depth=depth,
+        moment=float(M),
+        force=float(M / depth),
+        cantilever=cant,
+    )
 
 
-def diaphragm_demands(allocation: Allocation, config: ProjectConfig) -> DiaphragmDemands:
+def diaphragm_demands(
+    allocation: Allocation, config: ProjectConfig
+) -> DiaphragmDemands:
     """Unit shears, chord and collector forces of every diaphragm level and direction.
 
     ASCE 7-16 §12.10.1.1 (Fpx), §12.10.2.1 (collectors with Ω0 in SDC C–F).
@@ -186,38 +216,63 @@ def diaphragm_demands(allocation: Allocation, config: ProjectConfig) -> Diaphrag
         The demands, in the order of the allocation's results.
     """
     f = seismic_factor(config.design_basis)
-    omega = config.seismic.omega0 if seismic_design_category(config.seismic).at_least("C") else 1.0
+    omega = (
+        config.seismic.omega0
+        if seismic_design_category(config.seismic).at_least("C")
+        else 1.0
+    )
     tol = config.analysis.line_tolerance
     shears, chords, collectors = [], [], []
     for fr in allocation.flexible:
         lv = level_load(allocation, fr.level)
-        scale = lv.diaphragm_force / lv.story_force if lv and lv.story_force > 0 else 1.0
-        lines = {ln.id: ln for ln in allocation.lines
-                 if ln.level == fr.level and ln.direction is fr.direction}
+        scale = (
+            lv.diaphragm_force / lv.story_force if lv and lv.story_force > 0 else 1.0
+        )
+        lines = {
+            ln.id: ln
+            for ln in allocation.lines
+            if ln.level == fr.level and ln.direction is fr.direction
+        }
         totals: dict[str, float] = defaultdict(float)
         for (lid, dia), (r0, r1) in sorted(_reactions(fr, lines, scale, tol).items()):
             ln = lines[lid]
             crossing = dict(ln.crossings).get(dia) or sum(c for _, c in ln.crossings)
             crossing = crossing or ln.wall_length
             totals[lid] += r0 + r1
-            shears.append(LineShear(
-                line=lid, diaphragm=dia, level=fr.level, direction=fr.direction,
-                reactions=(r0, r1), crossing=crossing, unit_shear=f * max(r0, r1) / crossing))
+            shears.append(
+                LineShear(
+                    line=lid,
+                    diaphragm=dia,
+                    level=fr.level,
+                    direction=fr.direction,
+                    reactions=(r0, r1),
+                    crossing=crossing,
+                    unit_shear=f * max(r0, r1) / crossing,
+                )
+            )
         for lid, total in totals.items():
             ln = lines[lid]
             cross = sum(c for _, c in ln.crossings) or ln.wall_length
             if ln.collector_length > 1e-6 and total > 0.0:
                 v = f * total / cross
-                collectors.append(Collector(
-                    line=lid, level=fr.level, direction=fr.direction,
-                    length=ln.collector_length, unit_shear=v, omega0=omega,
-                    force=omega * v * ln.collector_length))
+                collectors.append(
+                    Collector(
+                        line=lid,
+                        level=fr.level,
+                        direction=fr.direction,
+                        length=ln.collector_length,
+                        unit_shear=v,
+                        omega0=omega,
+                        force=omega * v * ln.collector_length,
+                    )
+                )
         for piece in fr.pieces:
             ch = _chord(piece, lines, f * abs(piece.force) * scale)
             if ch is not None:
                 chords.append(ch)
-    return DiaphragmDemands(shears=tuple(shears), chords=tuple(chords),
-                            collectors=tuple(collectors))
+    return DiaphragmDemands(
+        shears=tuple(shears), chords=tuple(chords), collectors=tuple(collectors)
+    )
 
 
 def check_diaphragm(
@@ -253,21 +308,34 @@ def check_diaphragm(
     best: dict[tuple, LineShear] = {}
     for s in dem.shears:
         key = (s.level, s.direction, s.diaphragm)
-        if key not in best or (s.unit_shear, s.line) > (best[key].unit_shear, best[key].line):
+        if key not in best or (s.unit_shear, s.line) > (
+            best[key].unit_shear,
+            best[key].line,
+        ):
             best[key] = s
     for (level, d, dia), s in sorted(best.items()):
         guids, extra = where(level, dia)
-        findings.append(Finding(
-            rule=RULE, clause="ASCE 7-16 §12.10.1.1", severity=Severity.INFO, level=level,
-            direction=d, guids=guids,
-            title=f"Diaphragm unit shear {fmt(s.unit_shear, 'force_per_length', config)}",
-            description=(
-                f"Diaphragm {dia} of {level!r}, force in {d.value}: largest unit shear at "
-                f"line {s.line}, {fmt(max(s.reactions), 'force', config)} (Fpx-scaled) over "
-                f"{fmt(s.crossing, 'length', config)} ({basis}) = "
-                f"{fmt(s.unit_shear, 'force_per_length', config)}. No diaphragm capacity is "
-                "configured: check the sheathing and nailing for it."),
-            demand=s.unit_shear, unit="N/m", discriminator=f"{level}|{d.value}|shear{extra}"))
+        findings.append(
+            Finding(
+                rule=RULE,
+                clause="ASCE 7-16 §12.10.1.1",
+                severity=Severity.INFO,
+                level=level,
+                direction=d,
+                guids=guids,
+                title=f"Diaphragm unit shear {fmt(s.unit_shear, 'force_per_length', config)}",
+                description=(
+                    f"Diaphragm {dia} of {level!r}, force in {d.value}: largest unit shear at "
+                    f"line {s.line}, {fmt(max(s.reactions), 'force', config)} (Fpx-scaled) over "
+                    f"{fmt(s.crossing, 'length', config)} ({basis}) = "
+                    f"{fmt(s.unit_shear, 'force_per_length', config)}. No diaphragm capacity is "
+                    "configured: check the sheathing and nailing for it."
+                ),
+                demand=s.unit_shear,
+                unit="N/m",
+                discriminator=f"{level}|{d.value}|shear{extra}",
+            )
+        )
     findings += _chord_findings(dem.chords, allocation, config, where)
     findings += _collector_findings(dem.collectors, allocation, config)
     return findings
@@ -278,35 +346,58 @@ def _chord_findings(chords, allocation, config, where) -> list[Finding]:
     worst: dict[tuple, Chord] = {}
     for c in chords:
         key = (c.level, c.direction, c.diaphragm)
-        if key not in worst or (c.force, c.piece) > (worst[key].force, worst[key].piece):
+        if key not in worst or (c.force, c.piece) > (
+            worst[key].force,
+            worst[key].piece,
+        ):
             worst[key] = c
         if not c.cantilever and c.aspect_ratio > ASPECT_LIMIT:
             guids, extra = where(c.level, c.diaphragm)
-            out.append(Finding(
-                rule=RULE, clause="AWC SDPWS-2015 §4.2.4", severity=Severity.WARNING,
-                level=c.level, direction=c.direction, guids=guids,
-                title=f"Diaphragm span/depth {c.aspect_ratio:.1f} > {ASPECT_LIMIT:g}",
-                description=(
-                    f"Piece {c.piece} of {c.level!r} spans {fmt(c.span, 'length', config)} "
-                    f"between lines with a mean depth of {fmt(c.depth, 'length', config)}: "
-                    f"L/W = {c.aspect_ratio:.2f}, above the {ASPECT_LIMIT:g}:1 limit of "
-                    "blocked wood structural panel diaphragms (3:1 unblocked). Add a line "
-                    "of shear walls, or confirm the diaphragm is not wood sheathed."),
-                demand=c.aspect_ratio, capacity=ASPECT_LIMIT, unit="-",
-                discriminator=f"{c.level}|{c.direction.value}|aspect|{c.piece}{extra}"))
+            out.append(
+                Finding(
+                    rule=RULE,
+                    clause="AWC SDPWS-2015 §4.2.4",
+                    severity=Severity.WARNING,
+                    level=c.level,
+                    direction=c.direction,
+                    guids=guids,
+                    title=f"Diaphragm span/depth {c.aspect_ratio:.1f} > {ASPECT_LIMIT:g}",
+                    description=(
+                        f"Piece {c.piece} of {c.level!r} spans {fmt(c.span, 'length', config)} "
+                        f"between lines with a mean depth of {fmt(c.depth, 'length', config)}: "
+                        f"L/W = {c.aspect_ratio:.2f}, above the {ASPECT_LIMIT:g}:1 limit of "
+                        "blocked wood structural panel diaphragms (3:1 unblocked). Add a line "
+                        "of shear walls, or confirm the diaphragm is not wood sheathed."
+                    ),
+                    demand=c.aspect_ratio,
+                    capacity=ASPECT_LIMIT,
+                    unit="-",
+                    discriminator=f"{c.level}|{c.direction.value}|aspect|{c.piece}{extra}",
+                )
+            )
     for (level, d, dia), c in sorted(worst.items()):
         guids, extra = where(level, dia)
         kind = "cantilever, F·L/2" if c.cantilever else "simple span, F·L/8"
-        out.append(Finding(
-            rule=RULE, clause="ASCE 7-16 §12.10.1.1", severity=Severity.INFO, level=level,
-            direction=d, guids=guids,
-            title=f"Diaphragm chord force {fmt(c.force, 'force', config)}",
-            description=(
-                f"Diaphragm {dia} of {level!r}, force in {d.value}: largest chord force in "
-                f"piece {c.piece} ({kind}): M = {fmt(c.moment, 'moment', config)} over "
-                f"depth {fmt(c.depth, 'length', config)} = {fmt(c.force, 'force', config)} "
-                "tension and compression in the chords along the span."),
-            demand=c.force, unit="N", discriminator=f"{level}|{d.value}|chord{extra}"))
+        out.append(
+            Finding(
+                rule=RULE,
+                clause="ASCE 7-16 §12.10.1.1",
+                severity=Severity.INFO,
+                level=level,
+                direction=d,
+                guids=guids,
+                title=f"Diaphragm chord force {fmt(c.force, 'force', config)}",
+                description=(
+                    f"Diaphragm {dia} of {level!r}, force in {d.value}: largest chord force in "
+                    f"piece {c.piece} ({kind}): M = {fmt(c.moment, 'moment', config)} over "
+                    f"depth {fmt(c.depth, 'length', config)} = {fmt(c.force, 'force', config)} "
+                    "tension and compression in the chords along the span."
+                ),
+                demand=c.force,
+                unit="N",
+                discriminator=f"{level}|{d.value}|chord{extra}",
+            )
+        )
     return out
 
 
@@ -316,16 +407,26 @@ def _collector_findings(collectors, allocation, config) -> list[Finding]:
     for c in collectors:
         ln = lines[c.line]
         omega = f"Ω0 = {c.omega0:g} (SDC C–F)" if c.omega0 != 1.0 else "no Ω0 (SDC A–B)"
-        out.append(Finding(
-            rule=RULE, clause="ASCE 7-16 §12.10.2.1", severity=Severity.INFO, level=c.level,
-            direction=c.direction,
-            guids=line_guids(allocation, ln) or unique_sorted(level_guids(allocation, c.level)),
-            title=f"Collector force {fmt(c.force, 'force', config)} on line {c.line}",
-            description=(
-                f"Line {c.line} of {c.level!r}: {fmt(c.length, 'length', config)} of its "
-                f"crossing has no wall; collectors there take "
-                f"{fmt(c.unit_shear, 'force_per_length', config)} × length × {omega} = "
-                f"{fmt(c.force, 'force', config)} (an upper bound at the wall ends)."),
-            demand=c.force, unit="N", discriminator=f"{c.level}|{c.direction.value}|collector",
-            location=None))
+        out.append(
+            Finding(
+                rule=RULE,
+                clause="ASCE 7-16 §12.10.2.1",
+                severity=Severity.INFO,
+                level=c.level,
+                direction=c.direction,
+                guids=line_guids(allocation, ln)
+                or unique_sorted(level_guids(allocation, c.level)),
+                title=f"Collector force {fmt(c.force, 'force', config)} on line {c.line}",
+                description=(
+                    f"Line {c.line} of {c.level!r}: {fmt(c.length, 'length', config)} of its "
+                    f"crossing has no wall; collectors there take "
+                    f"{fmt(c.unit_shear, 'force_per_length', config)} × length × {omega} = "
+                    f"{fmt(c.force, 'force', config)} (an upper bound at the wall ends)."
+                ),
+                demand=c.force,
+                unit="N",
+                discriminator=f"{c.level}|{c.direction.value}|collector",
+                location=None,
+            )
+        )
     return out

@@ -88,8 +88,12 @@ def hold_down_forces(
         M = f * rho * pier_force(allocation, pier.id) * h
         Mr = kD * D * L / 2.0
         out[pier.id] = HoldDown(
-            pier=pier.id, overturning_moment=float(M), dead_load=float(D),
-            resisting_moment=float(Mr), arm=float(L), tension=float(max(0.0, (M - Mr) / L)),
+            pier=pier.id,
+            overturning_moment=float(M),
+            dead_load=float(D),
+            resisting_moment=float(Mr),
+            arm=float(L),
+            tension=float(max(0.0, (M - Mr) / L)),
         )
     return out
 
@@ -114,7 +118,11 @@ def check_overturning(
     Returns:
         Findings for levels where some pier has net uplift.
     """
-    hd = hold_downs if hold_downs is not None else hold_down_forces(allocation, config, rho=rho)
+    hd = (
+        hold_downs
+        if hold_downs is not None
+        else hold_down_forces(allocation, config, rho=rho)
+    )
     worst: dict[str, tuple[float, str]] = {}
     for pier in allocation.piers:
         h = hd.get(pier.id)
@@ -127,23 +135,33 @@ def check_overturning(
     findings = []
     for level, (tension, pid) in sorted(worst.items()):
         pier, h = by_id[pid], hd[pid]
-        count = sum(1 for p in allocation.piers if p.level == level
-                    and p.id in hd and hd[p.id].tension > 0.0)
-        findings.append(Finding(
-            rule=RULE, clause=combination_clause(config.design_basis), severity=Severity.INFO,
-            level=level, direction=pier.direction,
-            guids=level_guids(allocation, level) or (pier.guid,),
-            title=f"Hold-downs needed: up to {fmt(tension, 'force', config)} uplift",
-            description=(
-                f"{count} pier(s) supporting {level!r} have net uplift. Largest: pier "
-                f"{pier.pier} of wall {pier.name!r} ({pier.guid}), M = "
-                f"{fmt(h.overturning_moment, 'moment', config)} against "
-                f"{kD:.3f}·D·L/2 = {fmt(h.resisting_moment, 'moment', config)} with D = "
-                f"{fmt(h.dead_load, 'force', config)} (wall self weight only), "
-                f"T = (M − Mr)/L = {fmt(tension, 'force', config)}. Tributary floor dead "
-                "load is not included, so the uplift is an upper bound."
-            ),
-            demand=tension, unit="N", discriminator=f"{level}|hold-down",
-            location=pier.start,
-        ))
+        count = sum(
+            1
+            for p in allocation.piers
+            if p.level == level and p.id in hd and hd[p.id].tension > 0.0
+        )
+        findings.append(
+            Finding(
+                rule=RULE,
+                clause=combination_clause(config.design_basis),
+                severity=Severity.INFO,
+                level=level,
+                direction=pier.direction,
+                guids=level_guids(allocation, level) or (pier.guid,),
+                title=f"Hold-downs needed: up to {fmt(tension, 'force', config)} uplift",
+                description=(
+                    f"{count} pier(s) supporting {level!r} have net uplift. Largest: pier "
+                    f"{pier.pier} of wall {pier.name!r} ({pier.guid}), M = "
+                    f"{fmt(h.overturning_moment, 'moment', config)} against "
+                    f"{kD:.3f}·D·L/2 = {fmt(h.resisting_moment, 'moment', config)} with D = "
+                    f"{fmt(h.dead_load, 'force', config)} (wall self weight only), "
+                    f"T = (M − Mr)/L = {fmt(tension, 'force', config)}. Tributary floor dead "
+                    "load is not included, so the uplift is an upper bound."
+                ),
+                demand=tension,
+                unit="N",
+                discriminator=f"{level}|hold-down",
+                location=pier.start,
+            )
+        )
     return findings

@@ -15,8 +15,18 @@ __all__ = ["SeismicDesignCategory", "seismic_design_category"]
 
 _ORDER = "ABCDEF"
 # (upper bound of the range, category for RC I-III, category for RC IV), from memory
-_TABLE_11_6_1 = ((0.167, "A", "A"), (0.33, "B", "C"), (0.50, "C", "D"), (float("inf"), "D", "D"))
-_TABLE_11_6_2 = ((0.067, "A", "A"), (0.133, "B", "C"), (0.20, "C", "D"), (float("inf"), "D", "D"))
+_TABLE_11_6_1 = (
+    (0.167, "A", "A"),
+    (0.33, "B", "C"),
+    (0.50, "C", "D"),
+    (float("inf"), "D", "D"),
+)
+_TABLE_11_6_2 = (
+    (0.067, "A", "A"),
+    (0.133, "B", "C"),
+    (0.20, "C", "D"),
+    (float("inf"), "D", "D"),
+)
 
 
 @dataclass(frozen=True, slots=True, kw_only=True)
@@ -59,7 +69,11 @@ def seismic_design_category(seismic: SeismicParameters) -> SeismicDesignCategory
     Returns:
         The category, the risk category used and whether it was assumed.
     """
-    rc = "II" if seismic.Ie <= 1.0 + 1e-9 else ("III" if seismic.Ie <= 1.25 + 1e-9 else "IV")
+    rc = (
+        "II"
+        if seismic.Ie <= 1.0 + 1e-9
+        else ("III" if seismic.Ie <= 1.25 + 1e-9 else "IV")
+    )
     if seismic.SDS == 0.0 and seismic.SD1 == 0.0 and seismic.S1 == 0.0:
         return SeismicDesignCategory(sdc="D", risk_category=rc, assumed=True)
     rc_iv = rc == "IV"

@@ -67,7 +67,9 @@ class PierCheck:
     hold_down_tension: float | None = None
 
 
-def _assembly_capacity(pier: Pier, assembly: Assembly, config: ProjectConfig) -> float | None:
+def _assembly_capacity(
+    pier: Pier, assembly: Assembly, config: ProjectConfig
+) -> float | None:
     try:
         from checks.capacity import wall_unit_capacity
     except ModuleNotFoundError as exc:
@@ -75,7 +77,10 @@ def _assembly_capacity(pier: Pier, assembly: Assembly, config: ProjectConfig) ->
             raise
         return assembly.unit_shear_capacity
     value = wall_unit_capacity(
-        assembly, length=pier.length, height=pier.height, thickness=pier.thickness,
+        assembly,
+        length=pier.length,
+        height=pier.height,
+        thickness=pier.thickness,
         basis=config.design_basis,
     )
     return None if value is None else float(value)
@@ -131,8 +136,12 @@ def pier_checks(
         capacity, factor = pier_capacity(pier, config)
         dcr = v / capacity if capacity else None
         out[pier.id] = PierCheck(
-            pier=pier.id, force=force, unit_shear=float(v), capacity=capacity,
-            dcr=None if dcr is None else float(dcr), aspect_ratio=float(pier.aspect_ratio),
+            pier=pier.id,
+            force=force,
+            unit_shear=float(v),
+            capacity=capacity,
+            dcr=None if dcr is None else float(dcr),
+            aspect_ratio=float(pier.aspect_ratio),
             aspect_factor=float(factor),
         )
     return out
@@ -190,7 +199,9 @@ def _rho_note(config: ProjectConfig, rho: float | None) -> str:
     return "ρ = 1.0 assumed (seismic.rho not given)"
 
 
-def _ratio_finding(pier: Pier, c: PierCheck, config: ProjectConfig, rho_note: str) -> Finding:
+def _ratio_finding(
+    pier: Pier, c: PierCheck, config: ProjectConfig, rho_note: str
+) -> Finding:
     assembly = config.assembly(pier.assembly)
     kind = assembly.kind if assembly else AssemblyKind.OTHER
     over = c.dcr is not None and c.dcr > 1.0
@@ -209,15 +220,25 @@ def _ratio_finding(pier: Pier, c: PierCheck, config: ProjectConfig, rho_note: st
     )
     text += (
         "Add wall length on this line, or use a stronger assembly."
-        if over else "Near capacity: confirm the assembly and the dead load assumptions."
+        if over
+        else "Near capacity: confirm the assembly and the dead load assumptions."
     )
     return Finding(
-        rule=RULE, clause=_CAPACITY_CLAUSE.get(kind, combination_clause(config.design_basis)),
+        rule=RULE,
+        clause=_CAPACITY_CLAUSE.get(kind, combination_clause(config.design_basis)),
         severity=Severity.ERROR if over else Severity.WARNING,
-        level=pier.level, direction=pier.direction, guids=(pier.guid,),
-        title=(f"Shear wall over capacity: DCR {c.dcr:.2f}" if over
-               else f"Shear wall near capacity: DCR {c.dcr:.2f}"),
-        description=text, demand=c.unit_shear, capacity=c.capacity, unit="N/m",
+        level=pier.level,
+        direction=pier.direction,
+        guids=(pier.guid,),
+        title=(
+            f"Shear wall over capacity: DCR {c.dcr:.2f}"
+            if over
+            else f"Shear wall near capacity: DCR {c.dcr:.2f}"
+        ),
+        description=text,
+        demand=c.unit_shear,
+        capacity=c.capacity,
+        unit="N/m",
         discriminator=f"{pier.level}|{d}|pier {pier.part}.{pier.pier}",
         location=pier.midpoint,
     )
@@ -247,8 +268,12 @@ def _missing_finding(
             "unit_shear_capacity, sheathing + fastener + edge_spacing, or nominal_unit_shear"
         )
     return Finding(
-        rule=RULE, clause=combination_clause(config.design_basis), severity=Severity.ERROR,
-        level=pier.level, direction=pier.direction, guids=(pier.guid,),
+        rule=RULE,
+        clause=combination_clause(config.design_basis),
+        severity=Severity.ERROR,
+        level=pier.level,
+        direction=pier.direction,
+        guids=(pier.guid,),
         title="Shear wall with no capacity",
         description=(
             f"Wall {pier.name!r} ({pier.guid}) supporting {pier.level!r}, "

@@ -93,19 +93,27 @@ def check_aspect_ratio(allocation: Allocation, config: ProjectConfig) -> list[Fi
         if limit is None or ratio <= limit + 1e-9:
             continue
         d = pier.direction.value if pier.direction else "-"
-        findings.append(Finding(
-            rule=RULE, clause=CLAUSE_LIMIT, severity=Severity.ERROR, level=pier.level,
-            direction=pier.direction, guids=(pier.guid,),
-            title=f"Shear wall pier too slender: h/b = {ratio:.2f} > {limit:.2f}",
-            description=(
-                f"Pier {pier.pier} of wall {pier.name!r} ({pier.guid}) supporting "
-                f"{pier.level!r}: height {pier.height:.2f} m over length {pier.length:.2f} m "
-                f"gives h/b = {ratio:.2f}, above the {limit:.2f} limit for assembly "
-                f"{assembly.name!r}; it is not counted as a shear wall pier (capacity 0). "
-                "Lengthen the pier, or remove it from the shear wall assembly."
-            ),
-            demand=ratio, capacity=limit, unit="-",
-            discriminator=f"{pier.level}|{d}|pier {pier.part}.{pier.pier}",
-            location=pier.midpoint,
-        ))
+        findings.append(
+            Finding(
+                rule=RULE,
+                clause=CLAUSE_LIMIT,
+                severity=Severity.ERROR,
+                level=pier.level,
+                direction=pier.direction,
+                guids=(pier.guid,),
+                title=f"Shear wall pier too slender: h/b = {ratio:.2f} > {limit:.2f}",
+                description=(
+                    f"Pier {pier.pier} of wall {pier.name!r} ({pier.guid}) supporting "
+                    f"{pier.level!r}: height {pier.height:.2f} m over length {pier.length:.2f} m "
+                    f"gives h/b = {ratio:.2f}, above the {limit:.2f} limit for assembly "
+                    f"{assembly.name!r}; it is not counted as a shear wall pier (capacity 0). "
+                    "Lengthen the pier, or remove it from the shear wall assembly."
+                ),
+                demand=ratio,
+                capacity=limit,
+                unit="-",
+                discriminator=f"{pier.level}|{d}|pier {pier.part}.{pier.pier}",
+                location=pier.midpoint,
+            )
+        )
     return findings
