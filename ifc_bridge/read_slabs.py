@@ -238,9 +238,9 @@ def read_slab_plans(
         if thickness < MIN_SLAB_THICKNESS:
             msg = (
                 f"{path}: slab {slab.GlobalId} ({slab.Name!r}) is "
-                f"{thickness * 1000:.0f} mm thick (< {MIN_SLAB_THICKNESS * 1000:.0f} mm): "
-                "read as a floor finish, "
-                "not a diaphragm"
+                f"{thickness * 1000:.0f} mm thick "
+                f"(< {MIN_SLAB_THICKNESS * 1000:.0f} mm): "
+                "read as a floor finish, not a diaphragm"
             )
             issues.append(
                 ImportIssue(
