@@ -20,7 +20,8 @@ from itertools import pairwise
 
 from shapely.geometry import MultiLineString, Polygon
 from shapely.geometry.base import BaseGeometry
-from shapely.ops import split, transform
+import shapely
+from shapely.ops import split
 
 from ifc_bridge.model import Direction
 
@@ -58,13 +59,13 @@ class Piece:
     supports: tuple[Support, ...]
 
 
-def _swap(x: float, y: float, z: float | None = None) -> tuple[float, float]:
-    return (y, x)
+def _swap(coords):  # (n, 2) array of x, y -> y, x
+    return coords[:, ::-1]
 
 
 def to_local(geom: BaseGeometry, direction: Direction) -> BaseGeometry:
     """Plan geometry in the local frame of ``direction`` (swap x, y for Y)."""
-    return geom if direction is Direction.X else transform(_swap, geom)
+    return geom if direction is Direction.X else shapely.transform(geom, _swap)
 
 
 def to_plan(geom: BaseGeometry, direction: Direction) -> BaseGeometry:

@@ -34,7 +34,9 @@ from ifc_bridge.model import BuildingModel
 
 __all__ = ["Action", "MergePlan", "TopicChange", "apply_plan", "merge_topics"]
 
-CLOSED_STATUSES = frozenset({"closed", "resolved", "done"})  # common practice; case-insensitive
+CLOSED_STATUSES = frozenset(
+    {"closed", "resolved", "done"}
+)  # common practice; case-insensitive
 TOOL = "shearline"
 
 
@@ -218,5 +220,7 @@ def apply_plan(previous: Topics, plan: MergePlan, *, model: BuildingModel) -> To
             updates["finding"] = finding_data(change.finding)
         merged.append(replace(topic, **updates))
     for f in plan.added:
-        merged.append(topic_from_finding(f, model=model, author=plan.author, now=plan.now))
+        merged.append(
+            topic_from_finding(f, model=model, author=plan.author, now=plan.now)
+        )
     return replace(previous, topics=tuple(merged))

@@ -71,7 +71,10 @@ def _check_name(path: Path, name: str) -> None:
         or "\x00" in name
     )
     if bad:
-        msg = f"{path}: member {name!r} has an unsafe name (absolute, '..', drive or backslash); refusing the zip"
+        msg = (
+            f"{path}: member {name!r} has an unsafe name "
+            "(absolute, '..', drive or backslash); refusing the zip"
+        )
         raise BcfError(msg)
 
 
@@ -99,9 +102,13 @@ def _check_info(path: Path, info: zipfile.ZipInfo, limits: ZipLimits) -> None:
 
 
 def _read_member(
-    path: Path, archive: zipfile.ZipFile, info: zipfile.ZipInfo, budget: int, limits: ZipLimits
+    path: Path,
+    archive: zipfile.ZipFile,
+    info: zipfile.ZipInfo,
+    budget: int,
+    limits: ZipLimits,
 ) -> bytes:
-    """Read one member, stopping as soon as it grows past its declared size or the budget."""
+    """Read one member; stop as soon as it grows past its declared size or budget."""
     limit = min(info.file_size, limits.max_member_size, budget)
     chunks: list[bytes] = []
     size = 0
@@ -110,7 +117,8 @@ def _read_member(
             size += len(chunk)
             if size > limit:
                 msg = (
-                    f"{path}: member {info.filename!r} inflates past its declared size or "
+                    f"{path}: member {info.filename!r} inflates past its "
+                    "declared size or "
                     f"the {limits.max_total_size} byte total limit; refusing the zip"
                 )
                 raise BcfError(msg)
@@ -118,7 +126,9 @@ def _read_member(
     return b"".join(chunks)
 
 
-def read_zip_members(path: str | Path, limits: ZipLimits | None = None) -> dict[str, bytes]:
+def read_zip_members(
+    path: str | Path, limits: ZipLimits | None = None
+) -> dict[str, bytes]:
     """Check every member of a zip, then read all files into memory.
 
     Common practice: validate names, types and sizes from the central directory before
@@ -144,13 +154,19 @@ def read_zip_members(path: str | Path, limits: ZipLimits | None = None) -> dict[
     with archive:
         infos = archive.infolist()
         if len(infos) > limits.max_members:
-            msg = f"{path}: {len(infos)} members, over the {limits.max_members} member limit"
+            msg = (
+                f"{path}: {len(infos)} members, "
+                f"over the {limits.max_members} member limit"
+            )
             raise BcfError(msg)
         for info in infos:
             _check_info(path, info, limits)
         total = sum(info.file_size for info in infos)
         if total > limits.max_total_size:
-            msg = f"{path}: {total} bytes uncompressed, over the {limits.max_total_size} byte limit"
+            msg = (
+                f"{path}: {total} bytes uncompressed, "
+                f"over the {limits.max_total_size} byte limit"
+            )
             raise BcfError(msg)
         members: dict[str, bytes] = {}
         budget = limits.max_total_size
@@ -158,11 +174,19 @@ def read_zip_members(path: str | Path, limits: ZipLimits | None = None) -> dict[
             if info.is_dir():
                 continue
             if info.filename in members:
-                msg = f"{path}: member {info.filename!r} appears twice; refusing the zip"
+                msg = (
+                    f"{path}: member {info.filename!r} appears twice; refusing the zip"
+                )
                 raise BcfError(msg)
             try:
                 data = _read_member(path, archive, info, budget, limits)
-            except (zipfile.BadZipFile, OSError, EOFError, NotImplementedError) as exc:
+            except (
+                zipfile.BadZipFile,
+                OSError,
+                EOFError,
+                NotImplementedError,
+                RuntimeError,
+            ) as exc:
                 msg = f"{path}: member {info.filename!r} cannot be read ({exc})"
                 raise BcfError(msg) from exc
             budget -= len(data)

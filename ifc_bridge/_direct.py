@@ -9,6 +9,7 @@ in metres, Z up. A clipped body reports its unclipped height.
 
 from __future__ import annotations
 
+import math
 from dataclasses import dataclass
 
 import ifcopenshell
@@ -20,7 +21,7 @@ import shapely.affinity
 from numpy.typing import NDArray
 from shapely.geometry import Polygon
 
-__all__ = ["Extrusion", "body_extrusion", "placement_matrix"]
+__all__ = ["Extrusion", "axis2placement", "body_extrusion", "placement_matrix"]
 
 
 @dataclass(frozen=True, slots=True, kw_only=True)
@@ -38,6 +39,54 @@ class Extrusion:
     zmin: float
     zmax: float
     depth: float
+
+
+def axis2placement(placement: ifcopenshell.entity_instance) -> NDArray[np.float64]:
+    """4x4 matrix of an IfcAxis2Placement2D/3D (file units), without numpy overhead.
+
+    Common practice: IfcAxis2Placement3D with Axis (Z) and RefDirection (X projected
+    normal to Z), IFC 4.3 §8.9.3.2; defaults +Z and +X.
+
+    Args:
+        placement: The placement.
+
+    Returns:
+        Homogeneous transformation [file units].
+    """
+    loc = placement.Location
+    coords = (
+        tuple(loc.Coordinates)
+        if loc is not None and loc.is_a("IfcCartesianPoint")
+        else ()
+    )
+    o = (*coords, 0.0, 0.0, 0.0)[:3]
+    axis = getattr(placement, "Axis", None)
+    ref = placement.RefDirection
+    z = tuple(axis.DirectionRatios) if axis is not None else (0.0, 0.0, 1.0)
+    x = tuple(ref.DirectionRatios) if ref is not None else (1.0, 0.0, 0.0)
+    z = (*z, 0.0)[:3] if len(z) == 3 else (0.0, 0.0, 1.0)
+    x = (*x, 0.0)[:3]
+    nz = math.sqrt(sum(c * c for c in z))
+    z = tuple(c / nz for c in z)
+    dot = sum(a * b for a, b in zip(x, z, strict=True))
+    x = tuple(a - dot * b for a, b in zip(x, z, strict=True))
+    nx = math.sqrt(sum(c * c for c in x))
+    if nx <= 1e-12:
+        return ifcopenshell.util.placement.get_axis2placement(placement)
+    x = tuple(c / nx for c in x)
+    y = (
+        z[1] * x[2] - z[2] * x[1],
+        z[2] * x[0] - z[0] * x[2],
+        z[0] * x[1] - z[1] * x[0],
+    )
+    return np.array(
+        [
+            [x[0], y[0], z[0], o[0]],
+            [x[1], y[1], z[1], o[1]],
+            [x[2], y[2], z[2], o[2]],
+            [0.0, 0.0, 0.0, 1.0],
+        ]
+    )
 
 
 def placement_matrix(
@@ -62,9 +111,7 @@ def placement_matrix(
         return found
     if placement.is_a("IfcLocalPlacement"):
         parent = placement_matrix(placement.PlacementRelTo, cache)
-        m = parent @ ifcopenshell.util.placement.get_axis2placement(
-            placement.RelativePlacement
-        )
+        m = parent @ axis2placement(placement.RelativePlacement)
     else:
         m = ifcopenshell.util.placement.get_local_placement(placement)
     cache[placement.id()] = m
@@ -92,7 +139,7 @@ def _profile(profile: ifcopenshell.entity_instance) -> Polygon | None:
     if profile.is_a("IfcRectangleProfileDef"):
         x, y = profile.XDim / 2.0, profile.YDim / 2.0
         corners = np.array([[-x, -y, 0, 1], [x, -y, 0, 1], [x, y, 0, 1], [-x, y, 0, 1]])
-        m = ifcopenshell.util.placement.get_axis2placement(profile.Position)
+        m = axis2placement(profile.Position)
         return Polygon((m @ corners.T).T[:, :2])
     if profile.is_a("IfcArbitraryClosedProfileDef"):
         outer = _curve_points(profile.OuterCurve)
@@ -114,7 +161,7 @@ def _item_extrusion(
     if poly is None or not poly.is_valid or poly.area <= 0.0:
         return None
     if item.Position is not None:
-        m = m @ ifcopenshell.util.placement.get_axis2placement(item.Position)
+        m = m @ axis2placement(item.Position)
     d = m[:3, :3] @ np.asarray(item.ExtrudedDirection.DirectionRatios, dtype=np.float64)
     if abs(abs(d[2]) - np.linalg.norm(d)) > 1e-6 or abs(m[2, 2] - 1.0) > 1e-9:
         return None  # extruded or placed out of plumb: the kernel handles it

@@ -7,30 +7,58 @@ from dataclasses import dataclass
 import ifcopenshell
 import ifcopenshell.util.element
 
-__all__ = ["WallSemantics", "effective_predefined_type", "wall_semantics"]
+__all__ = [
+    "WallSemantics",
+    "effective_predefined_type",
+    "element_type",
+    "wall_semantics",
+]
 
 
-def effective_predefined_type(element: ifcopenshell.entity_instance) -> str:
+def element_type(
+    element: ifcopenshell.entity_instance,
+) -> ifcopenshell.entity_instance | None:
+    """The IfcTypeObject of an element (IFC4 IsTypedBy, IFC2X3 IfcRelDefinesByType)."""
+    for rel in getattr(element, "IsTypedBy", None) or ():
+        return rel.RelatingType
+    for rel in getattr(element, "IsDefinedBy", None) or ():
+        if rel.is_a("IfcRelDefinesByType"):
+            return rel.RelatingType
+    return None
+
+
+def effective_predefined_type(
+    element: ifcopenshell.entity_instance,
+    typed: ifcopenshell.entity_instance | bool | None = False,
+) -> str:
     """PredefinedType of an element, from its type first, as ifcopenshell resolves it.
 
-    Common practice: ``ifcopenshell.util.element.get_predefined_type``; for a class
-    with no PredefinedType attribute (IFC2X3 IfcWall, IfcSlab has one) and no typed
-    value, that function returns ``ObjectType``, which is not a predefined type, so
-    ``""`` is returned instead.
+    Common practice: the rule of ``ifcopenshell.util.element.get_predefined_type``
+    (type first, USERDEFINED -> ElementType / ObjectType). For a class with no
+    PredefinedType attribute (IFC2X3 IfcWall) and no typed value, that function
+    returns ``ObjectType``, which is not a predefined type; ``""`` is returned.
 
     Args:
         element: An IfcProduct.
+        typed: Its type object when already known (None: untyped); False: look it up.
 
     Returns:
         The predefined type (``"SHEAR"``, ``"FLOOR"``, a user-defined name), or ``""``.
     """
-    value = ifcopenshell.util.element.get_predefined_type(element) or ""
-    element_type = ifcopenshell.util.element.get_type(element)
-    from_type = getattr(element_type, "PredefinedType", None) if element_type else None
-    has_attribute = "PredefinedType" in element.get_attribute_names()
-    if not has_attribute and from_type in (None, "NOTDEFINED"):
+    t = element_type(element) if typed is False else typed
+    if t is not None:
+        value = getattr(t, "PredefinedType", None)
+        if value == "USERDEFINED" or not value:
+            value = getattr(t, "ElementType", None) or getattr(t, "ProcessType", None)
+        if value and value != "NOTDEFINED":
+            return str(value)
+    try:
+        value = element.PredefinedType
+    except AttributeError:
         return ""
-    return str(value)
+    if value == "USERDEFINED" or not value:
+        value = element.ObjectType
+    return str(value or "")
 
 
 @dataclass(frozen=True, slots=True, kw_only=True)
@@ -54,8 +82,27 @@ class WallSemantics:
     layer_thickness: float | None
 
 
-def _layer_thickness(wall: ifcopenshell.entity_instance, scale: float) -> float | None:
-    material = ifcopenshell.util.element.get_material(wall, should_skip_usage=True)
+def _material_names(material: ifcopenshell.entity_instance | None) -> tuple[str, ...]:
+    if material is None:
+        return ()
+    if material.is_a("IfcMaterial"):
+        found = [material]
+    elif material.is_a("IfcMaterialList"):
+        found = list(material.Materials)
+    else:
+        parts = (
+            getattr(material, "MaterialLayers", None)
+            or getattr(material, "MaterialConstituents", None)
+            or getattr(material, "MaterialProfiles", None)
+            or ()
+        )
+        found = [p.Material for p in parts if getattr(p, "Material", None) is not None]
+    return tuple(m.Name for m in found if m.Name)
+
+
+def _layer_thickness(
+    material: ifcopenshell.entity_instance | None, scale: float
+) -> float | None:
     if material is None or not material.is_a("IfcMaterialLayerSet"):
         return None
     total = sum(float(layer.LayerThickness or 0.0) for layer in material.MaterialLayers)
@@ -86,15 +133,13 @@ def wall_semantics(wall: ifcopenshell.entity_instance, scale: float) -> WallSema
     Returns:
         The wall's semantics.
     """
-    wall_type = ifcopenshell.util.element.get_type(wall)
-    materials = tuple(
-        m.Name for m in ifcopenshell.util.element.get_materials(wall) if m.Name
-    )
+    wall_type = element_type(wall)
+    material = ifcopenshell.util.element.get_material(wall, should_skip_usage=True)
     return WallSemantics(
         name=wall.Name or "",
         type_name=(wall_type.Name or "") if wall_type is not None else "",
-        materials=materials,
-        predefined_type=effective_predefined_type(wall),
+        materials=_material_names(material),
+        predefined_type=effective_predefined_type(wall, wall_type),
         properties=_properties(wall),
-        layer_thickness=_layer_thickness(wall, scale),
+        layer_thickness=_layer_thickness(material, scale),
     )

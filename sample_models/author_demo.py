@@ -47,6 +47,7 @@ from __future__ import annotations
 import argparse
 import json
 import logging
+import sys
 from dataclasses import dataclass, field
 from pathlib import Path
 
@@ -65,8 +66,12 @@ import ifcopenshell.api.type
 import ifcopenshell.api.unit
 import ifcopenshell.util.element
 import numpy as np
-from demo_config import DEMO_TOML
-from demo_plan import (
+
+if __package__ in (None, ""):  # run as a script: make the package importable
+    sys.path.insert(0, str(Path(__file__).resolve().parents[1]))
+
+from sample_models.demo_config import DEMO_TOML
+from sample_models.demo_plan import (
     FILES,
     FOOT,
     OUTLINE,
@@ -99,14 +104,12 @@ class _Ctx:
     storeys: dict = field(default_factory=dict)
     types: dict = field(default_factory=dict)
     materials: dict = field(default_factory=dict)
-    keyed: set = field(default_factory=set)
 
     def new(self, ifc_class: str, key: str, name: str | None = None, **kw):
         ent = ifcopenshell.api.root.create_entity(
             self.f, ifc_class=ifc_class, name=name, **kw
         )
         ent.GlobalId = stable_guid(key)
-        self.keyed.add(ent.id())
         return ent
 
     def u(self, metres: float) -> float:
@@ -137,12 +140,16 @@ def _new_file(schema: str, length_unit: str) -> _Ctx:
     ctx = _Ctx(f=f, scale=FOOT if length_unit == "ft" else 1.0)
     if schema == "IFC2X3":  # IfcOwnerHistory is mandatory in IFC2X3
         app = ifcopenshell.api.owner.add_application(f)
-        app.Version, app.ApplicationFullName = (
-            "1",
-            "shearline sample_models/author_demo.py",
-        )
-        app.ApplicationIdentifier = "shearline-author-demo"
-        app.ApplicationDeveloper.Name = "shearline"
+        app.Version, app.ApplicationIdentifier = "1", "shearline-author-demo"
+        app.ApplicationFullName = "shearline sample_models/author_demo.py"
+        dev = app.ApplicationDeveloper  # keep the header free of library versions
+        dev[0], dev.Name, dev.Description = (
+            "shearline",
+            "shearline",
+            None,
+        )  # Id(entification)
+        for address in dev.Addresses or ():
+            f.remove(address)
         person = ifcopenshell.api.owner.add_person(
             f, identification="demo", family_name="Author", given_name="Demo"
         )
@@ -475,7 +482,7 @@ def _finalise(ctx: _Ctx, filename: str) -> None:
         for other in histories[1:]:
             f.remove(other)
     header = f.header
-    view = "ReferenceView_V1.2" if ctx.ifc4 else "CoordinationView_V2.0"
+    view = "DesignTransferView_V1.0" if ctx.ifc4 else "CoordinationView_V2.0"
     header.file_description.description = (f"ViewDefinition [{view}]",)
     header.file_name.name = filename
     header.file_name.time_stamp = TIMESTAMP

@@ -51,7 +51,7 @@ OUTLINE = (
     (12.0, 12.0),
     (0.0, 12.0),
 )
-STAIR = ((9.2, 6.4), (11.8, 11.6))  # plan corners of the stair opening [m]
+STAIR = ((9.4, 6.4), (12.0, 11.6))  # plan corners of the stair opening [m]
 STAIR_STOREYS = ("Level 2", "Level 3")
 
 
@@ -180,7 +180,7 @@ def _exterior(s: Storey, revision: int) -> list[Wall]:
 
 
 def _interior(s: Storey, revision: int) -> list[Wall]:
-    n, tag, stair = s.name, s.tag, ((11.8, 6.4), (11.8, 11.6))
+    n, tag, stair = s.name, s.tag, ((12.0, 6.4), (12.0, 11.6))
     d1 = "SW-A" if tag == "L3" else "SW-B"
     out = [
         Wall(
@@ -207,7 +207,7 @@ def _interior(s: Storey, revision: int) -> list[Wall]:
                 Wall("L1-NSB", n, *ns_line, "SW-A", "shear wall added under L2-NSB")
             )
     if tag == "L2" and revision == 1:  # short, 6 in nailing: overstressed
-        out.append(Wall("L2-C1", n, (4, 6), (7, 6), "SW-A", "corridor shear wall"))
+        out.append(Wall("L2-C1", n, (4.5, 6), (6.5, 6), "SW-A", "corridor shear wall"))
     if tag == "L2" and revision == 2:
         out.append(Wall("L2-C1", n, (2, 6), (9.2, 6), "SW-B", "corridor shear wall"))
         out.append(Wall("L2-NSB", n, *ns_line, "SW-A", "shear wall added under L3-NS"))
@@ -237,7 +237,7 @@ def plan(revision: int) -> tuple[Wall, ...]:
 REV2_CHANGES = (
     (
         "L2-C1",
-        "lengthened from 3.0 m (X 4.0-7.0) to 7.2 m (X 2.0-9.2), retyped SW-A -> SW-B",
+        "lengthened from 2.0 m (X 4.5-6.5) to 7.2 m (X 2.0-9.2), retyped SW-A -> SW-B",
     ),
     ("L2-NSB", "added at Level 2 under L3-NS (Y 19.5, X 15.0-21.0, SW-A)"),
     ("L1-NSB", "added at Level 1 under L2-NSB (Y 19.5, X 15.0-21.0, SW-A)"),
@@ -280,7 +280,8 @@ def _wall_record(w: Wall) -> dict:
     return {
         "guid": w.guid, "name": w.tag, "storey": w.storey, "spans_storeys": spans,
         "role": w.role, "type_name": wt.name, "predefined_type": wt.predefined_type,
-        "shear": wt.shear, "start": list(w.start), "end": list(w.end),
+        "shear": wt.shear, "start": [float(v) for v in w.start],
+        "end": [float(v) for v in w.end],
         "length": _r(w.length), "thickness": _r(wt.thickness), "base": base, "top": top,
         "load_bearing": w.load_bearing, "external": w.external,
         "piers": [[_r(a), _r(b)] for a, b in piers(w)], "openings": holes,

@@ -32,7 +32,9 @@ __all__ = [
     "xml_date",
 ]
 
-PRIMARY_VIEWPOINT = "viewpoint.bcfv"  # BCF-XML 2.1 markup.xsd; IfcOpenShell #7152 workaround
+PRIMARY_VIEWPOINT = (
+    "viewpoint.bcfv"  # BCF-XML 2.1 markup.xsd; IfcOpenShell #7152 workaround
+)
 PRIMARY_SNAPSHOT = "snapshot.png"
 HIGHLIGHT_HEX = "FF1E1E"  # same red as the snapshot
 
@@ -49,9 +51,15 @@ def xml_date(when: dt.datetime) -> XmlDateTime:
 
 def _camera(mdl: ModuleType, camera: Camera, version: str) -> dict[str, object]:
     """Keyword arguments of VisualizationInfo for one camera."""
-    point = mdl.Point(x=camera.view_point[0], y=camera.view_point[1], z=camera.view_point[2])
-    direction = mdl.Direction(x=camera.direction[0], y=camera.direction[1], z=camera.direction[2])
-    up = mdl.Direction(x=camera.up_vector[0], y=camera.up_vector[1], z=camera.up_vector[2])
+    point = mdl.Point(
+        x=camera.view_point[0], y=camera.view_point[1], z=camera.view_point[2]
+    )
+    direction = mdl.Direction(
+        x=camera.direction[0], y=camera.direction[1], z=camera.direction[2]
+    )
+    up = mdl.Direction(
+        x=camera.up_vector[0], y=camera.up_vector[1], z=camera.up_vector[2]
+    )
     common: dict[str, object] = {
         "camera_view_point": point,
         "camera_direction": direction,
@@ -60,7 +68,9 @@ def _camera(mdl: ModuleType, camera: Camera, version: str) -> dict[str, object]:
     if version == "3.0":
         common["aspect_ratio"] = camera.aspect_ratio
     if camera.kind == "orthogonal":
-        cam = mdl.OrthogonalCamera(**common, view_to_world_scale=camera.view_to_world_scale or 1.0)
+        cam = mdl.OrthogonalCamera(
+            **common, view_to_world_scale=camera.view_to_world_scale or 1.0
+        )
         return {"orthogonal_camera": cam}
     fov = camera.field_of_view or 60.0
     if version != "3.0":
@@ -77,7 +87,9 @@ def _components(mdl: ModuleType, guids: tuple[str, ...], version: str) -> object
     if version == "3.0":
         colour = m3.ComponentColoringColor(
             color=HIGHLIGHT_HEX,
-            components=m3.ComponentColoringColorComponents(component=[m3.Component(ifc_guid=g) for g in guids]),
+            components=m3.ComponentColoringColorComponents(
+                component=[m3.Component(ifc_guid=g) for g in guids]
+            ),
         )
     else:
         colour = m2.ComponentColoringColor(
@@ -106,7 +118,9 @@ def _viewpoint_refs(handler: TopicHandler2 | TopicHandler3, version: str) -> lis
     return handler.markup.viewpoints
 
 
-def add_viewpoint(handler: TopicHandler2 | TopicHandler3, viewpoint: Viewpoint, version: str) -> None:
+def add_viewpoint(
+    handler: TopicHandler2 | TopicHandler3, viewpoint: Viewpoint, version: str
+) -> None:
     """Add a viewpoint (and its snapshot) to a topic handler.
 
     The topic's first viewpoint is named ``viewpoint.bcfv`` with ``snapshot.png``, as
@@ -120,7 +134,9 @@ def add_viewpoint(handler: TopicHandler2 | TopicHandler3, viewpoint: Viewpoint, 
     snap_name = None
     if viewpoint.snapshot:
         ext = "jpg" if viewpoint.snapshot_type == "jpg" else "png"
-        snap_name = PRIMARY_SNAPSHOT if first and ext == "png" else f"{viewpoint.guid}.{ext}"
+        snap_name = (
+            PRIMARY_SNAPSHOT if first and ext == "png" else f"{viewpoint.guid}.{ext}"
+        )
     vis_cls = VisInfo3 if version == "3.0" else VisInfo2
     handlers = handler.viewpoints  # loads (or creates) the dict before we add to it
     handlers[name] = vis_cls(_visinfo(viewpoint, version), snapshot=viewpoint.snapshot)
@@ -128,24 +144,34 @@ def add_viewpoint(handler: TopicHandler2 | TopicHandler3, viewpoint: Viewpoint, 
     refs.append(mdl.ViewPoint(viewpoint=name, snapshot=snap_name, guid=viewpoint.guid))
 
 
-def add_comment(handler: TopicHandler2 | TopicHandler3, comment: Comment, version: str) -> None:
+def add_comment(
+    handler: TopicHandler2 | TopicHandler3, comment: Comment, version: str
+) -> None:
     """Append a comment to a topic handler."""
     mdl = model_of(version)
-    vp = mdl.CommentViewpoint(guid=comment.viewpoint_guid) if comment.viewpoint_guid else None
+    vp = (
+        mdl.CommentViewpoint(guid=comment.viewpoint_guid)
+        if comment.viewpoint_guid
+        else None
+    )
     item = mdl.Comment(
         guid=comment.guid,
         date=xml_date(comment.date),
         author=comment.author,
         comment=comment.text,
         viewpoint=vp,
-        modified_date=xml_date(comment.modified_date) if comment.modified_date else None,
+        modified_date=xml_date(comment.modified_date)
+        if comment.modified_date
+        else None,
         modified_author=comment.modified_author,
     )
     handler.comments = [*handler.comments, item]
 
 
-def header_for(version: str, *, ifc_filename: str, ifc_project: str, date: dt.datetime) -> object | None:
-    """A markup Header with one File referencing the IFC, or None with nothing to say."""
+def header_for(
+    version: str, *, ifc_filename: str, ifc_project: str, date: dt.datetime
+) -> object | None:
+    """A markup Header with one File referencing the IFC, or None when empty."""
     if not ifc_filename and not ifc_project:
         return None
     kw = {
@@ -175,7 +201,9 @@ def _topic_model(topic: Topic, version: str) -> object:
         "topic_status": topic.status,
     }
     if version == "3.0":
-        kw["labels"] = m3.TopicLabels(label=list(topic.labels)) if topic.labels else None
+        kw["labels"] = (
+            m3.TopicLabels(label=list(topic.labels)) if topic.labels else None
+        )
     else:
         kw["labels"] = list(topic.labels)
     return mdl.Topic(**kw)

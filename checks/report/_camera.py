@@ -80,8 +80,10 @@ def _box_of(points: Sequence[tuple[float, float, float]]) -> Box:
     return Box(lo=(min(xs), min(ys), min(zs)), hi=(max(xs), max(ys), max(zs)))
 
 
-def _wall_points(model: BuildingModel, guids: set[str], level: str) -> list[tuple[float, float, float]]:
-    """Corners of the finding's wall segments, preferring those that support ``level``."""
+def _wall_points(
+    model: BuildingModel, guids: set[str], level: str
+) -> list[tuple[float, float, float]]:
+    """Corners of the finding's wall segments, preferring those under ``level``."""
     walls = [w for w in model.walls if w.guid in guids]
     on_level = [w for w in walls if w.level == level]
     points: list[tuple[float, float, float]] = []

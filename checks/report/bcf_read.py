@@ -45,7 +45,9 @@ def _text(el: etree._Element | None, name: str) -> str | None:
     return None if kid is None or kid.text is None else kid.text.strip()
 
 
-def _date(value: str | None, where: str, *, required: bool = False) -> dt.datetime | None:
+def _date(
+    value: str | None, where: str, *, required: bool = False
+) -> dt.datetime | None:
     if not value:
         if required:
             msg = f"{where}: date missing; the BCF requires it"
@@ -67,14 +69,25 @@ def _vector(el: etree._Element | None, where: str) -> tuple[float, float, float]
 
 
 def _camera(root: etree._Element, where: str) -> Camera | None:
-    for tag, kind in (("PerspectiveCamera", "perspective"), ("OrthogonalCamera", "orthogonal")):
+    for tag, kind in (
+        ("PerspectiveCamera", "perspective"),
+        ("OrthogonalCamera", "orthogonal"),
+    ):
         cam = _kid(root, tag)
         if cam is None:
             continue
         try:
-            fov = float(_text(cam, "FieldOfView")) if _text(cam, "FieldOfView") else None
-            scale = float(_text(cam, "ViewToWorldScale")) if _text(cam, "ViewToWorldScale") else None
-            aspect = float(_text(cam, "AspectRatio") or 1.0)  # BCF 2.1 has none: assume 1
+            fov = (
+                float(_text(cam, "FieldOfView")) if _text(cam, "FieldOfView") else None
+            )
+            scale = (
+                float(_text(cam, "ViewToWorldScale"))
+                if _text(cam, "ViewToWorldScale")
+                else None
+            )
+            aspect = float(
+                _text(cam, "AspectRatio") or 1.0
+            )  # BCF 2.1 has none: assume 1
         except ValueError as exc:
             msg = f"{where}: {tag} has a non-numeric value"
             raise BcfError(msg) from exc
@@ -90,7 +103,9 @@ def _camera(root: etree._Element, where: str) -> Camera | None:
     return None
 
 
-def _viewpoint(ref: etree._Element, folder: str, members: dict[str, bytes], source: str) -> Viewpoint:
+def _viewpoint(
+    ref: etree._Element, folder: str, members: dict[str, bytes], source: str
+) -> Viewpoint:
     guid = ref.get("Guid", "")
     file_name = _text(ref, "Viewpoint") or ""
     snap_name = _text(ref, "Snapshot") or ""
@@ -102,14 +117,23 @@ def _viewpoint(ref: etree._Element, folder: str, members: dict[str, bytes], sour
         root = parse_xml(data, source=where)
         guid = guid or root.get("Guid", "")
         selection = _kid(_kid(root, "Components"), "Selection")
-        selected = tuple(c.get("IfcGuid", "") for c in _kids(selection, "Component") if c.get("IfcGuid"))
+        selected = tuple(
+            c.get("IfcGuid", "")
+            for c in _kids(selection, "Component")
+            if c.get("IfcGuid")
+        )
         camera = _camera(root, where)
     elif file_name:
         logger.warning("%s: %s/%s is referenced but missing", source, folder, file_name)
     snapshot = members.get(f"{folder}/{snap_name}") if snap_name else None
     kind = "jpg" if snap_name.lower().endswith((".jpg", ".jpeg")) else "png"
     return Viewpoint(
-        guid=guid, selected=selected, camera=camera, snapshot=snapshot, snapshot_type=kind, file_name=file_name
+        guid=guid,
+        selected=selected,
+        camera=camera,
+        snapshot=snapshot,
+        snapshot_type=kind,
+        file_name=file_name,
     )
 
 
@@ -136,8 +160,14 @@ def _topic(folder: str, members: dict[str, bytes], source: str) -> Topic:
         raise BcfError(msg)
     v3 = _kid(topic, "Comments") is not None or _kid(topic, "Viewpoints") is not None
     comments_parent = _kid(topic, "Comments") if v3 else markup
-    comment_els = _kids(comments_parent, "Comment") if comments_parent is not None else []
-    refs = _kids(_kid(topic, "Viewpoints"), "ViewPoint") if v3 else _kids(markup, "Viewpoints")
+    comment_els = (
+        _kids(comments_parent, "Comment") if comments_parent is not None else []
+    )
+    refs = (
+        _kids(_kid(topic, "Viewpoints"), "ViewPoint")
+        if v3
+        else _kids(markup, "Viewpoints")
+    )
     labels_el = _kid(topic, "Labels")
     if labels_el is not None and _kids(labels_el, "Label"):
         labels = tuple((e.text or "").strip() for e in _kids(labels_el, "Label"))
@@ -173,14 +203,24 @@ def _read_zip(path: Path) -> Topics:
     version_root = parse_xml(members["bcf.version"], source=f"{source}: bcf.version")
     version = version_root.get("VersionId", "")
     if version not in {"2.0", "2.1", "3.0"}:
-        msg = f"{path}: BCF version {version!r} is not supported; give a BCF 2.1 or 3.0 file"
+        msg = (
+            f"{path}: BCF version {version!r} is not supported; "
+            "give a BCF 2.1 or 3.0 file"
+        )
         raise BcfError(msg)
     project_name = project_id = ""
     if "project.bcfp" in members:
-        project = _kid(parse_xml(members["project.bcfp"], source=f"{source}: project.bcfp"), "Project")
+        project = _kid(
+            parse_xml(members["project.bcfp"], source=f"{source}: project.bcfp"),
+            "Project",
+        )
         project_name = _text(project, "Name") or ""
         project_id = project.get("ProjectId", "") if project is not None else ""
-    folders = [n.split("/")[0] for n in members if n.count("/") == 1 and n.endswith("/markup.bcf")]
+    folders = [
+        n.split("/")[0]
+        for n in members
+        if n.count("/") == 1 and n.endswith("/markup.bcf")
+    ]
     topics = tuple(_topic(f, members, source) for f in folders)
     for t in topics:
         if t.guid != t.folder:
@@ -213,7 +253,10 @@ def read_topics(path: str | Path) -> Topics:
     """
     path = Path(path)
     if not path.is_file():
-        msg = f"{path}: no such BCF file; give the path of the previous run's .bcf or .json"
+        msg = (
+            f"{path}: no such BCF file; "
+            "give the path of the previous run's .bcf or .json"
+        )
         raise BcfError(msg)
     with path.open("rb") as fh:
         head = fh.read(64).lstrip()

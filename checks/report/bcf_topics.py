@@ -38,7 +38,11 @@ __all__ = [
 
 TOOL_LABEL = "shearline"  # first label of every topic this tool writes
 PRIORITY = {Severity.ERROR: "High", Severity.WARNING: "Normal", Severity.INFO: "Low"}
-TOPIC_TYPE = {Severity.ERROR: "Error", Severity.WARNING: "Warning", Severity.INFO: "Info"}
+TOPIC_TYPE = {
+    Severity.ERROR: "Error",
+    Severity.WARNING: "Warning",
+    Severity.INFO: "Info",
+}
 SNAPSHOT_SIZE = (800, 600)  # [px]
 
 logger = logging.getLogger(__name__)
@@ -181,7 +185,7 @@ class Topic:
 
     @property
     def is_ours(self) -> bool:
-        """True when this tool wrote the topic (it carries the tool label or finding)."""
+        """True when this tool wrote the topic (tool label or finding present)."""
         return self.finding is not None or TOOL_LABEL in self.labels
 
 
@@ -236,7 +240,9 @@ def numbers_text(finding: Finding) -> str:
     if finding.demand is not None:
         parts.append(f"Demand {finding.demand:.4g} {finding.unit}.".replace(" .", "."))
     if finding.capacity is not None:
-        parts.append(f"Capacity {finding.capacity:.4g} {finding.unit}.".replace(" .", "."))
+        parts.append(
+            f"Capacity {finding.capacity:.4g} {finding.unit}.".replace(" .", ".")
+        )
     if finding.ratio is not None:
         parts.append(f"Ratio {finding.ratio:.3f}.")
     return " ".join(parts)
@@ -258,7 +264,11 @@ def derived_guid(base: str, name: str) -> str:
 
 
 def viewpoint_for(
-    finding: Finding, model: BuildingModel, *, guid: str, size: tuple[int, int] = SNAPSHOT_SIZE
+    finding: Finding,
+    model: BuildingModel,
+    *,
+    guid: str,
+    size: tuple[int, int] = SNAPSHOT_SIZE,
 ) -> Viewpoint:
     """A viewpoint that frames and selects a finding's elements, with a plan snapshot.
 
@@ -274,11 +284,15 @@ def viewpoint_for(
     Returns:
         The viewpoint.
     """
-    box = element_box(model, finding.guids, level=finding.level, location=finding.location)
+    box = element_box(
+        model, finding.guids, level=finding.level, location=finding.location
+    )
     camera = frame_box(box, aspect_ratio=size[0] / size[1])
     level = finding.level if finding.level in {lv.name for lv in model.levels} else ""
     png = plan_snapshot_png(model, level=level, highlight=finding.guids, size=size)
-    return Viewpoint(guid=guid, selected=tuple(finding.guids), camera=camera, snapshot=png)
+    return Viewpoint(
+        guid=guid, selected=tuple(finding.guids), camera=camera, snapshot=png
+    )
 
 
 def topic_from_finding(
@@ -310,7 +324,6 @@ def topic_from_finding(
         description=description,
         creation_date=as_utc(now),
         creation_author=author,
-        server_assigned_id=finding.id,
         viewpoints=(viewpoint,),
         finding=finding_data(finding),
     )
@@ -325,7 +338,21 @@ def topics_from_findings(
     bcf_version: str = "2.1",
     project_name: str = "",
 ) -> Topics:
-    """Fresh topics for findings (no previous file), in findings order."""
+    """Fresh topics for findings (no previous file), in findings order.
+
+    Common practice: one topic per finding; a finding given twice is one topic.
+
+    Args:
+        findings: The findings.
+        model: The model they are about.
+        author: CreationAuthor.
+        now: Creation date (UTC if naive).
+        bcf_version: ``"2.1"`` or ``"3.0"``, recorded on the result.
+        project_name: Project name; the model's when ``""``.
+
+    Returns:
+        The topics.
+    """
     seen: set[str] = set()
     topics = []
     for f in findings:

@@ -33,8 +33,19 @@ from bcf.v3.bcfxml import BcfXml as BcfXml3
 
 from checks.errors import BcfError, OutputError
 from checks.findings import Finding
-from checks.report._bcf_objects import add_comment, header_for, new_topic_handler, xml_date
-from checks.report.bcf_topics import Topic, Topics, as_utc, topic_from_finding, topics_from_findings
+from checks.report._bcf_objects import (
+    add_comment,
+    header_for,
+    new_topic_handler,
+    xml_date,
+)
+from checks.report.bcf_topics import (
+    Topic,
+    Topics,
+    as_utc,
+    topic_from_finding,
+    topics_from_findings,
+)
 from checks.roundtrip import MergePlan, apply_plan, merge_topics
 from checks.safe_zip import parse_xml, read_zip_members
 from ifc_bridge.model import BuildingModel
@@ -48,10 +59,18 @@ _PROJECT_NAMESPACE = uuid.UUID("0d7b8c4e-3f21-4a8e-9b6d-2c5a1e9f7d30")  # never 
 _XML_SUFFIXES = (".bcf", ".bcfv", ".bcfp", ".version", ".xml")
 
 
-def _new_bcfxml(version: str, *, project_name: str, project_key: str) -> BcfXml2 | BcfXml3:
+def _new_bcfxml(
+    version: str, *, project_name: str, project_key: str
+) -> BcfXml2 | BcfXml3:
     """An empty BCF with a project id derived from the project (not random)."""
-    bcfxml = BcfXml3.create_new(project_name) if version == "3.0" else BcfXml2.create_new(project_name)
-    project_id = str(uuid.uuid5(_PROJECT_NAMESPACE, project_key or project_name or "shearline"))
+    bcfxml = (
+        BcfXml3.create_new(project_name)
+        if version == "3.0"
+        else BcfXml2.create_new(project_name)
+    )
+    project_id = str(
+        uuid.uuid5(_PROJECT_NAMESPACE, project_key or project_name or "shearline")
+    )
     bcfxml.project_info.project.project_id = project_id
     return bcfxml
 
@@ -64,8 +83,16 @@ def _declare_extensions(bcfxml: BcfXml3, topics: Sequence[Topic]) -> None:
         ext = None
     ext = ext or m3.Extensions()
     wanted = {
-        "topic_types": ("ExtensionsTopicTypes", "topic_type", ["Error", "Warning", "Info"]),
-        "topic_statuses": ("ExtensionsTopicStatuses", "topic_status", ["Open", "Closed", "ReOpened"]),
+        "topic_types": (
+            "ExtensionsTopicTypes",
+            "topic_type",
+            ["Error", "Warning", "Info"],
+        ),
+        "topic_statuses": (
+            "ExtensionsTopicStatuses",
+            "topic_status",
+            ["Open", "Closed", "ReOpened"],
+        ),
         "priorities": ("ExtensionsPriorities", "priority", ["High", "Normal", "Low"]),
         "topic_labels": ("ExtensionsTopicLabels", "topic_label", []),
     }
@@ -97,24 +124,35 @@ def _finalise_zip(path: Path, *, date: dt.datetime, keep: dict[str, bytes]) -> N
     with zipfile.ZipFile(path) as z:
         entries = [(i.filename, z.read(i)) for i in z.infolist()]
     written = {name for name, _ in entries}
-    entries += [(n, d) for n, d in keep.items() if n not in written and n.rstrip("/") + "/" not in written]
+    entries += [
+        (n, d)
+        for n, d in keep.items()
+        if n not in written and n.rstrip("/") + "/" not in written
+    ]
     out = io.BytesIO()
     with zipfile.ZipFile(out, "w", zipfile.ZIP_DEFLATED) as z:
         for name, data in entries:
             info = zipfile.ZipInfo(name, date_time=max(stamp, (1980, 1, 1, 0, 0, 0)))
             info.compress_type = zipfile.ZIP_DEFLATED
-            info.external_attr = (0o40755 << 16) | 0x10 if name.endswith("/") else 0o644 << 16
+            info.external_attr = (
+                (0o40755 << 16) | 0x10 if name.endswith("/") else 0o644 << 16
+            )
             z.writestr(info, data)
     path.write_bytes(out.getvalue())
 
 
-def _save(bcfxml: BcfXml2 | BcfXml3, path: Path, *, date: dt.datetime, keep: dict[str, bytes]) -> None:
+def _save(
+    bcfxml: BcfXml2 | BcfXml3, path: Path, *, date: dt.datetime, keep: dict[str, bytes]
+) -> None:
     try:
         path.parent.mkdir(parents=True, exist_ok=True)
         bcfxml.save(path)
         _finalise_zip(path, date=date, keep=keep)
     except OSError as exc:
-        msg = f"{path}: cannot write the BCF file ({exc}); check the folder exists and is writable"
+        msg = (
+            f"{path}: cannot write the BCF file ({exc}); "
+            "check the folder exists and is writable"
+        )
         raise OutputError(msg) from exc
 
 
@@ -136,9 +174,13 @@ def _aligned_members(source: str) -> dict[str, bytes]:
             guid = topic.get("Guid", "") if topic is not None else ""
             if guid and guid != parts[0]:
                 if guid in renames.values() or f"{guid}/markup.bcf" in members:
-                    msg = f"{source}: two topic folders claim topic {guid}; fix the file"
+                    msg = (
+                        f"{source}: two topic folders claim topic {guid}; fix the file"
+                    )
                     raise BcfError(msg)
-                logger.warning("%s: folder %s holds topic %s; renamed", source, parts[0], guid)
+                logger.warning(
+                    "%s: folder %s holds topic %s; renamed", source, parts[0], guid
+                )
                 renames[parts[0]] = guid
     out: dict[str, bytes] = {}
     for name, data in members.items():
@@ -164,13 +206,18 @@ def _load_previous(members: dict[str, bytes], source: str) -> BcfXml2 | BcfXml3:
     return loaded
 
 
-def _apply_in_place(bcfxml: BcfXml2 | BcfXml3, plan: MergePlan, version: str, source: str) -> None:
+def _apply_in_place(
+    bcfxml: BcfXml2 | BcfXml3, plan: MergePlan, version: str, source: str
+) -> None:
     """Set statuses and append comments on the loaded previous topics."""
     handlers = {h.guid: h for h in bcfxml.topics.values()}
     for change in plan.changes:
         handler = handlers.get(change.topic_guid)
         if handler is None:
-            msg = f"{source}: topic {change.topic_guid} was read but bcf-client cannot find it"
+            msg = (
+                f"{source}: topic {change.topic_guid} was read "
+                "but bcf-client cannot find it"
+            )
             raise BcfError(msg)
         if change.new_status is not None:
             handler.topic.topic_status = change.new_status
@@ -194,14 +241,26 @@ def _write_merged_zip(
     if old_version != version:
         logger.warning(
             "%s is BCF %s; the update keeps %s (asked for %s) so nothing is lost",
-            previous.source, old_version, old_version, version,
+            previous.source,
+            old_version,
+            old_version,
+            version,
         )
     _apply_in_place(bcfxml, plan, old_version, previous.source)
-    new_topics = [topic_from_finding(f, model=model, author=plan.author, now=plan.now) for f in plan.added]
-    _add_topics(bcfxml, new_topics, old_version, model=model, ifc_filename=ifc_filename, date=plan.now)
+    new_topics = [
+        topic_from_finding(f, model=model, author=plan.author, now=plan.now)
+        for f in plan.added
+    ]
+    _add_topics(
+        bcfxml,
+        new_topics,
+        old_version,
+        model=model,
+        ifc_filename=ifc_filename,
+        date=plan.now,
+    )
     if old_version == "3.0":
-        merged = apply_plan(previous, plan, model=model)
-        _declare_extensions(bcfxml, merged.topics)
+        _declare_extensions(bcfxml, [*previous.topics, *new_topics])
     _save(bcfxml, path, date=plan.now, keep=members)
 
 
@@ -217,7 +276,12 @@ def _add_topics(
     for t in topics:
         header = None
         if t.finding is not None:
-            header = header_for(version, ifc_filename=ifc_filename, ifc_project=model.project_guid, date=date)
+            header = header_for(
+                version,
+                ifc_filename=ifc_filename,
+                ifc_project=model.project_guid,
+                date=date,
+            )
         bcfxml.topics[t.guid] = new_topic_handler(t, version, header=header)
 
 
@@ -254,21 +318,39 @@ def write_bcf(
         OutputError: The file cannot be written.
     """
     if version not in BCF_VERSIONS:
-        msg = f"BCF version {version!r} is not supported; use one of {', '.join(BCF_VERSIONS)}"
+        msg = (
+            f"BCF version {version!r} is not supported; "
+            f"use one of {', '.join(BCF_VERSIONS)}"
+        )
         raise BcfError(msg)
     path = Path(path)
     now = as_utc(now)
     name = project_name or model.project_name
     if previous is not None:
-        plan = merge_topics(previous, findings, author=author, now=now, ifc_filename=ifc_filename)
+        plan = merge_topics(
+            previous, findings, author=author, now=now, ifc_filename=ifc_filename
+        )
         if previous.source_kind == "bcf":
-            _write_merged_zip(previous, plan, path, model=model, version=version, ifc_filename=ifc_filename)
+            _write_merged_zip(
+                previous,
+                plan,
+                path,
+                model=model,
+                version=version,
+                ifc_filename=ifc_filename,
+            )
             return
         topics = apply_plan(previous, plan, model=model).topics
     else:
-        topics = topics_from_findings(findings, model=model, author=author, now=now).topics
-    bcfxml = _new_bcfxml(version, project_name=name, project_key=model.project_guid or name)
-    _add_topics(bcfxml, topics, version, model=model, ifc_filename=ifc_filename, date=now)
+        topics = topics_from_findings(
+            findings, model=model, author=author, now=now
+        ).topics
+    bcfxml = _new_bcfxml(
+        version, project_name=name, project_key=model.project_guid or name
+    )
+    _add_topics(
+        bcfxml, topics, version, model=model, ifc_filename=ifc_filename, date=now
+    )
     if version == "3.0":
         _declare_extensions(bcfxml, topics)
     _save(bcfxml, path, date=now, keep={})

@@ -61,12 +61,16 @@ def _nice_length(target: float) -> float:
 class _Plan:
     """World-to-pixel mapping that fits a plan box in the image, Y up."""
 
-    def __init__(self, bounds: tuple[float, float, float, float], size: tuple[int, int]) -> None:
+    def __init__(
+        self, bounds: tuple[float, float, float, float], size: tuple[int, int]
+    ) -> None:
         x0, y0, x1, y1 = bounds
         w, h = size
         span_x = max(x1 - x0, 1.0)
         span_y = max(y1 - y0, 1.0)
-        self.scale = min((w - 2 * _MARGIN) / span_x, (h - 2 * _MARGIN) / span_y)  # [px/m]
+        self.scale = min(
+            (w - 2 * _MARGIN) / span_x, (h - 2 * _MARGIN) / span_y
+        )  # [px/m]
         self.cx = (x0 + x1) / 2.0
         self.cy = (y0 + y1) / 2.0
         self.w = w
@@ -79,7 +83,9 @@ class _Plan:
         )
 
 
-def _bounds(model: BuildingModel, level: str, walls: Sequence[WallSegment]) -> tuple[float, float, float, float]:
+def _bounds(
+    model: BuildingModel, level: str, walls: Sequence[WallSegment]
+) -> tuple[float, float, float, float]:
     xs: list[float] = []
     ys: list[float] = []
     for d in model.diaphragms_of(level):
@@ -94,7 +100,13 @@ def _bounds(model: BuildingModel, level: str, walls: Sequence[WallSegment]) -> t
     return (min(xs), min(ys), max(xs), max(ys))
 
 
-def _draw_diaphragms(draw: ImageDraw.ImageDraw, plan: _Plan, model: BuildingModel, level: str, highlight: set[str]) -> None:
+def _draw_diaphragms(
+    draw: ImageDraw.ImageDraw,
+    plan: _Plan,
+    model: BuildingModel,
+    level: str,
+    highlight: set[str],
+) -> None:
     for d in model.diaphragms_of(level):
         fill = _SLAB_HIGHLIGHT_FILL if highlight & set(d.slab_guids) else _SLAB_FILL
         outer = [plan.px(x, y) for x, y in d.polygon.exterior.coords]
@@ -104,7 +116,13 @@ def _draw_diaphragms(draw: ImageDraw.ImageDraw, plan: _Plan, model: BuildingMode
             draw.polygon(hole, fill=_BACKGROUND, outline=_HOLE_RGB, width=2)
 
 
-def _draw_walls(draw: ImageDraw.ImageDraw, plan: _Plan, walls: Sequence[WallSegment], rgb: tuple[int, int, int], min_px: int) -> None:
+def _draw_walls(
+    draw: ImageDraw.ImageDraw,
+    plan: _Plan,
+    walls: Sequence[WallSegment],
+    rgb: tuple[int, int, int],
+    min_px: int,
+) -> None:
     for w in walls:
         width = max(min_px, round(w.thickness * plan.scale))
         draw.line([plan.px(*w.start), plan.px(*w.end)], fill=rgb, width=width)
@@ -115,10 +133,14 @@ def _draw_axes(draw: ImageDraw.ImageDraw, plan: _Plan) -> None:
     ox, oy, arm = 15.0, 52.0, 35.0
     font = _font()
     draw.line([(ox, oy), (ox + arm, oy)], fill=_INK, width=2)
-    draw.polygon([(ox + arm + 6, oy), (ox + arm, oy - 4), (ox + arm, oy + 4)], fill=_INK)
+    draw.polygon(
+        [(ox + arm + 6, oy), (ox + arm, oy - 4), (ox + arm, oy + 4)], fill=_INK
+    )
     draw.text((ox + arm + 9, oy - 6), "X", fill=_INK, font=font)
     draw.line([(ox, oy), (ox, oy - arm)], fill=_INK, width=2)
-    draw.polygon([(ox, oy - arm - 6), (ox - 4, oy - arm), (ox + 4, oy - arm)], fill=_INK)
+    draw.polygon(
+        [(ox, oy - arm - 6), (ox - 4, oy - arm), (ox + 4, oy - arm)], fill=_INK
+    )
     draw.text((ox + 6, oy - arm - 12), "Y", fill=_INK, font=font)
 
 
@@ -128,7 +150,9 @@ def _draw_scale_bar(draw: ImageDraw.ImageDraw, plan: _Plan) -> None:
     bar = length * plan.scale
     x0, y0 = 20.0, plan.h - 20.0
     draw.rectangle([x0, y0 - 6, x0 + bar, y0], outline=_INK, fill=_INK)
-    draw.rectangle([x0 + bar / 2.0, y0 - 6, x0 + bar, y0], outline=_INK, fill=_BACKGROUND)
+    draw.rectangle(
+        [x0 + bar / 2.0, y0 - 6, x0 + bar, y0], outline=_INK, fill=_BACKGROUND
+    )
     label = f"{length:g} m"
     draw.text((x0, y0 - 20), label, fill=_INK, font=_font())
 
@@ -159,10 +183,16 @@ def plan_snapshot_png(
         BcfError: ``level`` names no level of the model, or the size is too small.
     """
     if level and level not in {lv.name for lv in model.levels}:
-        msg = f"{model.source}: snapshot for level {level!r}, which the model does not have"
+        msg = (
+            f"{model.source}: snapshot for level {level!r}, "
+            "which the model does not have"
+        )
         raise BcfError(msg)
     if min(size) <= 2 * _MARGIN:
-        msg = f"snapshot size {size} px is too small; give at least {2 * _MARGIN + 1} px each way"
+        msg = (
+            f"snapshot size {size} px is too small; "
+            f"give at least {2 * _MARGIN + 1} px each way"
+        )
         raise BcfError(msg)
     marked_ids = set(highlight)
     grey, marked = _walls_to_draw(model, level, marked_ids)

@@ -36,6 +36,7 @@ from checks.rules.asce7_16.unit_shear import PierCheck, check_unit_shear, pier_c
 from checks.rules.model.import_issues import check_import_issues
 from checks.rules.model.unmatched_shear_walls import check_unmatched_shear_walls
 from checks.rules.sdpws_2015.aspect_ratio import check_aspect_ratio
+from checks.rules.sdpws_2015.diaphragm_aspect_ratio import check_diaphragm_aspect_ratio
 from ifc_bridge.model import BuildingModel
 
 __all__ = ["CheckResult", "run_checks", "sort_findings"]
@@ -106,6 +107,7 @@ def run_checks(
     findings += check_aspect_ratio(allocation, config)
     findings += check_overturning(allocation, config, hold_downs=holds)
     findings += check_diaphragm(model, allocation, config, demands=demands)
+    findings += check_diaphragm_aspect_ratio(model, allocation, config, demands=demands)
     findings += check_irregularities(model, allocation, config)
     findings += check_discontinuity(allocation, config, model=model)
     findings += check_redundancy(redundancy, allocation, config)

@@ -19,11 +19,17 @@ def _zip(path, members, *, compression=zipfile.ZIP_DEFLATED):
 
 
 def test_reads_a_plain_zip(tmp_path):
-    path = _zip(tmp_path / "ok.bcf", {"bcf.version": b"<Version/>", "t/markup.bcf": b"<Markup/>"})
-    assert read_zip_members(path) == {"bcf.version": b"<Version/>", "t/markup.bcf": b"<Markup/>"}
+    path = _zip(
+        tmp_path / "ok.bcf",
+        {"bcf.version": b"<Version/>", "t/markup.bcf": b"<Markup/>"},
+    )
+    assert read_zip_members(path) == {
+        "bcf.version": b"<Version/>",
+        "t/markup.bcf": b"<Markup/>",
+    }
 
 
-def test_default_limits():  # the task's limits: 50 MB per member, 200 MB total, ratio 100
+def test_default_limits():  # the task's limits: 50 MB a member, 200 MB, ratio 100
     limits = ZipLimits()
     assert (limits.max_member_size, limits.max_total_size) == (50 * 2**20, 200 * 2**20)
     assert limits.max_ratio == 100.0
@@ -78,16 +84,19 @@ def test_oversized_total_is_refused(tmp_path):
 
 
 def test_zip_bomb_ratio_is_refused(tmp_path):
-    path = _zip(tmp_path / "bomb.bcf", {"zeros.bin": bytes(4 * 2**20)})  # 4 MB of zeros, ~1000:1
+    path = _zip(
+        tmp_path / "bomb.bcf", {"zeros.bin": bytes(4 * 2**20)}
+    )  # 4 MB of zeros, ~1000:1
     with pytest.raises(BcfError, match="compression ratio"):
         read_zip_members(path)
 
 
 def test_duplicate_member_is_refused(tmp_path):
     path = tmp_path / "dup.bcf"
-    with pytest.warns(UserWarning, match="Duplicate name"), zipfile.ZipFile(path, "w") as z:
+    with zipfile.ZipFile(path, "w") as z:
         z.writestr("a.txt", b"1")
-        z.writestr("a.txt", b"2")
+        with pytest.warns(UserWarning, match="Duplicate name"):
+            z.writestr("a.txt", b"2")
     with pytest.raises(BcfError, match="appears twice"):
         read_zip_members(path)
 
@@ -100,7 +109,8 @@ def test_not_a_zip_is_refused(tmp_path):
 
 
 _BILLION_LAUGHS = b"""<?xml version="1.0"?>
-<!DOCTYPE lolz [<!ENTITY lol "lol"><!ENTITY lol2 "&lol;&lol;&lol;&lol;&lol;&lol;&lol;&lol;">]>
+<!DOCTYPE lolz [<!ENTITY lol "lol">
+<!ENTITY lol2 "&lol;&lol;&lol;&lol;&lol;&lol;&lol;&lol;">]>
 <Markup>&lol2;</Markup>"""
 _XXE = b"""<?xml version="1.0"?>
 <!DOCTYPE m [<!ENTITY xxe SYSTEM "file:///etc/passwd">]>
@@ -123,3 +133,16 @@ def test_malformed_xml_is_refused():
 def test_plain_xml_parses():
     root = parse_xml(b'<Markup><Topic Guid="g"/></Markup>', source="x")
     assert root.find("Topic").get("Guid") == "g"
+
+
+def test_encrypted_member_is_a_one_line_error(tmp_path):
+    path = _zip(tmp_path / "locked.bcf", {"bcf.version": b"<Version/>"})
+    data = bytearray(path.read_bytes())
+    # set the "encrypted" bit of the general purpose flags, APPNOTE.TXT §4.4.4,
+    # in the local header (offset 6) and the central directory header (offset 8)
+    central = data.index(b"PK\x01\x02")
+    data[6] |= 0x1
+    data[central + 8] |= 0x1
+    path.write_bytes(bytes(data))
+    with pytest.raises(BcfError, match="cannot be read"):
+        read_zip_members(path)

@@ -1,8 +1,9 @@
 """Every open IFC sample reads, and agrees with ifcopenshell's own counts and geometry.
 
 Samples and their quirks: ../shared/ifc_samples/README.md ("README.md" below).
-Each file is read once per module. Areas are checked against ``ifcopenshell.util.shape.get_footprint_area`` on the
-triangulated shape from ``ifcopenshell.geom`` (openings subtracted), within 1 %.
+Each file is read once per module. Areas are checked against
+``ifcopenshell.util.shape.get_footprint_area`` on the triangulated shape from
+``ifcopenshell.geom`` (openings subtracted), within 1 %.
 """
 
 from __future__ import annotations

@@ -1,4 +1,4 @@
-"""Diaphragm demands: unit shear at each line, chord forces, collector forces, aspect ratio.
+"""Diaphragm demands: unit shear at each line, chord forces and collector forces.
 
 Diaphragm forces use Fpx (ASCE 7-16 §12.10.1.1): the flexible (tributary) share each
 diaphragm piece delivers to a line is scaled by Fpx/Fx of its level; transfer forces
@@ -14,12 +14,9 @@ below pass straight down and put no shear in the diaphragm.
 * Collectors: unit shear delivered along the line × the line's collector length, times
   Ω0 in SDC C–F (§12.10.2.1, item 2: Fpx forces with overstrength). SDC from
   :mod:`seismic_design_category`; D is assumed where no spectral values are given.
-* Aspect ratio span/depth of each piece between two lines against 4:1 (blocked wood
-  structural panels, AWC SDPWS-2015 §4.2.4, from memory): the config does not yet say
-  what the diaphragm is made of, so this is a warning.
 
-Severity policy: demands are info (no diaphragm capacity in the config yet); an aspect
-ratio over 4:1 is a warning.
+Severity policy: demands are info (no diaphragm capacity in the config yet). The aspect
+ratio of the pieces is :mod:`checks.rules.sdpws_2015.diaphragm_aspect_ratio`.
 """
 
 from __future__ import annotations
@@ -43,7 +40,6 @@ from checks.rules._support import (
     level_load,
     line_guids,
     perp,
-    unique_sorted,
 )
 from checks.rules.asce7_16.load_combinations import seismic_factor
 from checks.rules.asce7_16.seismic_design_category import seismic_design_category
@@ -56,10 +52,10 @@ __all__ = [
     "LineShear",
     "check_diaphragm",
     "diaphragm_demands",
+    "slab_guids",
 ]
 
 RULE = "diaphragm"
-ASPECT_LIMIT = 4.0  # AWC SDPWS-2015 §4.2.4, blocked wood structural panels, from memory
 
 
 @dataclass(frozen=True, slots=True, kw_only=True)
@@ -275,6 +271,30 @@ def diaphragm_demands(
     )
 
 
+def slab_guids(
+    model: BuildingModel | None, allocation: Allocation, level: str, diaphragm: str
+) -> tuple[tuple[str, ...], str]:
+    """GlobalIds a diaphragm finding is pinned to, and a discriminator suffix.
+
+    The diaphragm's slabs when the model is given (stable across revisions), else the
+    storey with the diaphragm id in the discriminator.
+    """
+    if model is not None:
+        for d in model.diaphragms:
+            if d.id == diaphragm and d.slab_guids:
+                return d.slab_guids, ""
+    return level_guids(allocation, level, model), f"|{diaphragm}"
+
+
+def _governing(records, value) -> dict[tuple, object]:
+    best: dict[tuple, object] = {}
+    for r in records:
+        key = (r.level, r.direction, r.diaphragm)
+        if key not in best or value(r) > value(best[key]):
+            best[key] = r
+    return best
+
+
 def check_diaphragm(
     model: BuildingModel | None,
     allocation: Allocation,
@@ -282,10 +302,9 @@ def check_diaphragm(
     *,
     demands: DiaphragmDemands | None = None,
 ) -> list[Finding]:
-    """Info findings with the governing diaphragm demands; warnings for slender pieces.
+    """Info findings with the governing diaphragm demands.
 
-    ASCE 7-16 §12.10.1.1 (diaphragm forces), §12.10.2.1 (collectors); AWC SDPWS-2015
-    §4.2.4 (aspect ratio).
+    ASCE 7-16 §12.10.1.1 (diaphragm forces), §12.10.2.1 (collectors).
 
     Args:
         model: The model, for the slabs' GlobalIds (None: the storey's GlobalId).
@@ -294,28 +313,17 @@ def check_diaphragm(
         demands: Precomputed :func:`diaphragm_demands`, or None.
 
     Returns:
-        Findings, unsorted.
+        Findings, unsorted: per level, direction and diaphragm the largest unit shear
+        and chord force; per line with collectors its collector force.
     """
     dem = demands if demands is not None else diaphragm_demands(allocation, config)
-    slabs = {d.id: d.slab_guids for d in model.diaphragms} if model is not None else {}
     basis = config.design_basis.value
-
-    def where(level: str, dia: str) -> tuple[tuple[str, ...], str]:
-        g = slabs.get(dia, ())
-        return (g, "") if g else (level_guids(allocation, level, model), f"|{dia}")
-
-    findings: list[Finding] = []
-    best: dict[tuple, LineShear] = {}
-    for s in dem.shears:
-        key = (s.level, s.direction, s.diaphragm)
-        if key not in best or (s.unit_shear, s.line) > (
-            best[key].unit_shear,
-            best[key].line,
-        ):
-            best[key] = s
-    for (level, d, dia), s in sorted(best.items()):
-        guids, extra = where(level, dia)
-        findings.append(
+    out: list[Finding] = []
+    shears = _governing(dem.shears, lambda s: (s.unit_shear, s.line))
+    for (level, d, dia), s in sorted(shears.items()):
+        guids, extra = slab_guids(model, allocation, level, dia)
+        v = fmt(s.unit_shear, "force_per_length", config)
+        out.append(
             Finding(
                 rule=RULE,
                 clause="ASCE 7-16 §12.10.1.1",
@@ -323,60 +331,25 @@ def check_diaphragm(
                 level=level,
                 direction=d,
                 guids=guids,
-                title=f"Diaphragm unit shear {fmt(s.unit_shear, 'force_per_length', config)}",
+                title=f"Diaphragm unit shear {v}",
                 description=(
-                    f"Diaphragm {dia} of {level!r}, force in {d.value}: largest unit shear at "
-                    f"line {s.line}, {fmt(max(s.reactions), 'force', config)} (Fpx-scaled) over "
-                    f"{fmt(s.crossing, 'length', config)} ({basis}) = "
-                    f"{fmt(s.unit_shear, 'force_per_length', config)}. No diaphragm capacity is "
-                    "configured: check the sheathing and nailing for it."
+                    f"Diaphragm {dia} of {level!r}, force in {d.value}: largest unit "
+                    "shear "
+                    f"at line {s.line}: {fmt(max(s.reactions), 'force', config)} "
+                    f"(Fpx-scaled) over {fmt(s.crossing, 'length', config)} ({basis}) "
+                    "= "
+                    f"{v}. No diaphragm capacity is configured: check the sheathing "
+                    "and "
+                    "nailing for it."
                 ),
                 demand=s.unit_shear,
                 unit="N/m",
                 discriminator=f"{level}|{d.value}|shear{extra}",
             )
         )
-    findings += _chord_findings(dem.chords, allocation, config, where)
-    findings += _collector_findings(dem.collectors, allocation, config)
-    return findings
-
-
-def _chord_findings(chords, allocation, config, where) -> list[Finding]:
-    out: list[Finding] = []
-    worst: dict[tuple, Chord] = {}
-    for c in chords:
-        key = (c.level, c.direction, c.diaphragm)
-        if key not in worst or (c.force, c.piece) > (
-            worst[key].force,
-            worst[key].piece,
-        ):
-            worst[key] = c
-        if not c.cantilever and c.aspect_ratio > ASPECT_LIMIT:
-            guids, extra = where(c.level, c.diaphragm)
-            out.append(
-                Finding(
-                    rule=RULE,
-                    clause="AWC SDPWS-2015 §4.2.4",
-                    severity=Severity.WARNING,
-                    level=c.level,
-                    direction=c.direction,
-                    guids=guids,
-                    title=f"Diaphragm span/depth {c.aspect_ratio:.1f} > {ASPECT_LIMIT:g}",
-                    description=(
-                        f"Piece {c.piece} of {c.level!r} spans {fmt(c.span, 'length', config)} "
-                        f"between lines with a mean depth of {fmt(c.depth, 'length', config)}: "
-                        f"L/W = {c.aspect_ratio:.2f}, above the {ASPECT_LIMIT:g}:1 limit of "
-                        "blocked wood structural panel diaphragms (3:1 unblocked). Add a line "
-                        "of shear walls, or confirm the diaphragm is not wood sheathed."
-                    ),
-                    demand=c.aspect_ratio,
-                    capacity=ASPECT_LIMIT,
-                    unit="-",
-                    discriminator=f"{c.level}|{c.direction.value}|aspect|{c.piece}{extra}",
-                )
-            )
-    for (level, d, dia), c in sorted(worst.items()):
-        guids, extra = where(level, dia)
+    chords = _governing(dem.chords, lambda c: (c.force, c.piece))
+    for (level, d, dia), c in sorted(chords.items()):
+        guids, extra = slab_guids(model, allocation, level, dia)
         kind = "cantilever, F·L/2" if c.cantilever else "simple span, F·L/8"
         out.append(
             Finding(
@@ -388,25 +361,32 @@ def _chord_findings(chords, allocation, config, where) -> list[Finding]:
                 guids=guids,
                 title=f"Diaphragm chord force {fmt(c.force, 'force', config)}",
                 description=(
-                    f"Diaphragm {dia} of {level!r}, force in {d.value}: largest chord force in "
-                    f"piece {c.piece} ({kind}): M = {fmt(c.moment, 'moment', config)} over "
-                    f"depth {fmt(c.depth, 'length', config)} = {fmt(c.force, 'force', config)} "
-                    "tension and compression in the chords along the span."
+                    f"Diaphragm {dia} of {level!r}, force in {d.value}: largest chord "
+                    "force "
+                    f"in piece {c.piece} ({kind}): M = "
+                    f"{fmt(c.moment, 'moment', config)} "
+                    f"over a depth of {fmt(c.depth, 'length', config)} gives "
+                    f"{fmt(c.force, 'force', config)} in the chords along the span."
                 ),
                 demand=c.force,
                 unit="N",
                 discriminator=f"{level}|{d.value}|chord{extra}",
             )
         )
-    return out
+    return out + _collector_findings(dem.collectors, allocation, config)
 
 
-def _collector_findings(collectors, allocation, config) -> list[Finding]:
+def _collector_findings(
+    collectors: tuple[Collector, ...], allocation: Allocation, config: ProjectConfig
+) -> list[Finding]:
     out = []
     lines = {ln.id: ln for ln in allocation.lines}
     for c in collectors:
-        ln = lines[c.line]
+        guids = line_guids(allocation, lines[c.line]) or level_guids(
+            allocation, c.level
+        )
         omega = f"Ω0 = {c.omega0:g} (SDC C–F)" if c.omega0 != 1.0 else "no Ω0 (SDC A–B)"
+        force = fmt(c.force, "force", config)
         out.append(
             Finding(
                 rule=RULE,
@@ -414,19 +394,19 @@ def _collector_findings(collectors, allocation, config) -> list[Finding]:
                 severity=Severity.INFO,
                 level=c.level,
                 direction=c.direction,
-                guids=line_guids(allocation, ln)
-                or unique_sorted(level_guids(allocation, c.level)),
-                title=f"Collector force {fmt(c.force, 'force', config)} on line {c.line}",
+                guids=guids,
+                title=f"Collector force {force} on line {c.line}",
                 description=(
-                    f"Line {c.line} of {c.level!r}: {fmt(c.length, 'length', config)} of its "
-                    f"crossing has no wall; collectors there take "
-                    f"{fmt(c.unit_shear, 'force_per_length', config)} × length × {omega} = "
-                    f"{fmt(c.force, 'force', config)} (an upper bound at the wall ends)."
+                    f"Line {c.line} of {c.level!r}: {fmt(c.length, 'length', config)} "
+                    "of its "
+                    "crossing has no wall; the collectors there take "
+                    f"{fmt(c.unit_shear, 'force_per_length', config)} × length × "
+                    f"{omega} "
+                    f"= {force} (an upper bound at the wall ends)."
                 ),
                 demand=c.force,
                 unit="N",
                 discriminator=f"{c.level}|{c.direction.value}|collector",
-                location=None,
             )
         )
     return out

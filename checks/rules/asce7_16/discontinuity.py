@@ -93,7 +93,8 @@ def _non_stacking(c: Condition, allocation, config: ProjectConfig, model) -> Fin
         text = (
             f"line {ln.id} below is in the wall's plane but its walls cover "
             f"{ln.wall_extent[0]:.2f}–{ln.wall_extent[1]:.2f} m, not the wall's "
-            f"{min(pier.start[al], pier.end[al]):.2f}–{max(pier.start[al], pier.end[al]):.2f} m"
+            f"{min(pier.start[al], pier.end[al]):.2f}–"
+            f"{max(pier.start[al], pier.end[al]):.2f} m"
         )
         sev = Severity.WARNING
     elif below:
@@ -104,7 +105,8 @@ def _non_stacking(c: Condition, allocation, config: ProjectConfig, model) -> Fin
         )
         text = (
             f"the nearest line below, {near.id}, is "
-            f"{fmt(abs(near.offset - pier.midpoint[ax]), 'length', config)} out of its plane"
+            f"{fmt(abs(near.offset - pier.midpoint[ax]), 'length', config)} out of its "
+            "plane"
         )
         sev = Severity.WARNING
     else:
@@ -178,7 +180,8 @@ def _cantilever(
             limit = min(CANTILEVER_MAX, (1.0 if stories <= 1 else 0.67) * W)
         verdict = "exceeds" if Lc > limit else "is within"
         text = (
-            f"{c.detail}. L' = {fmt(Lc, 'length', config)}, W = {fmt(W, 'length', config)}"
+            f"{c.detail}. L' = {fmt(Lc, 'length', config)}, W = "
+            f"{fmt(W, 'length', config)}"
             f"; L' {verdict} the {fmt(limit, 'length', config)} limit"
             f"{' for an open front' if only else ''} of wood structural panel "
             "diaphragms (25 ft, and 2/3 W; open front 1.0 W one story, 0.67 W more)."

@@ -152,11 +152,14 @@ def check_torsional_irregularity(
                 level=level,
                 direction=d,
                 guids=level_guids(allocation, level, model),
-                title=f"Torsional irregularity Type {kind.split()[0]}: ratio {ratio:.2f}",
+                title=f"Torsional irregularity Type {kind.split()[0]}: {ratio:.2f}",
                 description=(
-                    f"Story below {level!r}, force in {d.value}: max/average displacement at the "
-                    f"plan extremes = {ratio:.2f} > {TYPE_1B if extreme else TYPE_1A:g}, "
-                    f"Type {kind}.{note} Balance the wall stiffness about the centre of mass."
+                    f"Story below {level!r}, force in {d.value}: max/average "
+                    "displacement at the "
+                    f"plan extremes = {ratio:.2f} > "
+                    f"{TYPE_1B if extreme else TYPE_1A:g}, "
+                    f"Type {kind}.{note} Balance the wall stiffness about the centre "
+                    "of mass."
                 ),
                 demand=ratio,
                 capacity=TYPE_1B if extreme else TYPE_1A,
@@ -204,10 +207,13 @@ def check_reentrant_corners(
                     guids=guids,
                     title="Re-entrant corner irregularity (Type 2)",
                     description=(
-                        f"Diaphragm {dia.id} of {dia.level!r} has {len(bad)} re-entrant "
-                        f"corner(s) with both projections over 15 % of the plan dimension; at "
+                        f"Diaphragm {dia.id} of {dia.level!r} has {len(bad)} "
+                        "re-entrant "
+                        "corner(s) with both projections over 15 % of the plan "
+                        "dimension; at "
                         f"({c.point[0]:.2f}, {c.point[1]:.2f}) m the projections are "
-                        f"{100 * c.ratio[0]:.0f} % (x) and {100 * c.ratio[1]:.0f} % (y). Detail "
+                        f"{100 * c.ratio[0]:.0f} % (x) and {100 * c.ratio[1]:.0f} % "
+                        "(y). Detail "
                         "the corner collectors and chords for it."
                     ),
                     demand=min(c.ratio),

@@ -148,14 +148,17 @@ def check_overturning(
                 level=level,
                 direction=pier.direction,
                 guids=level_guids(allocation, level) or (pier.guid,),
-                title=f"Hold-downs needed: up to {fmt(tension, 'force', config)} uplift",
+                title=f"Hold-downs: up to {fmt(tension, 'force', config)} uplift",
                 description=(
-                    f"{count} pier(s) supporting {level!r} have net uplift. Largest: pier "
+                    f"{count} pier(s) supporting {level!r} have net uplift. Largest: "
+                    "pier "
                     f"{pier.pier} of wall {pier.name!r} ({pier.guid}), M = "
                     f"{fmt(h.overturning_moment, 'moment', config)} against "
-                    f"{kD:.3f}·D·L/2 = {fmt(h.resisting_moment, 'moment', config)} with D = "
+                    f"{kD:.3f}·D·L/2 = {fmt(h.resisting_moment, 'moment', config)} "
+                    "with D = "
                     f"{fmt(h.dead_load, 'force', config)} (wall self weight only), "
-                    f"T = (M − Mr)/L = {fmt(tension, 'force', config)}. Tributary floor dead "
+                    f"T = (M − Mr)/L = {fmt(tension, 'force', config)}. Tributary "
+                    "floor dead "
                     "load is not included, so the uplift is an upper bound."
                 ),
                 demand=tension,

@@ -87,7 +87,8 @@ def _extreme_without(
     config: ProjectConfig,
     model: BuildingModel | None,
 ) -> bool | None:
-    """True if removing ``pier`` makes the story extremely torsional; None: not checked."""
+    """True if removing ``pier`` makes the story extremely torsional; None: not "
+    "checked."""
     try:
         from allocation.rigid import allocate_rigid_story
     except ImportError:
@@ -183,7 +184,8 @@ def evaluate_redundancy(
                 if loss > STRENGTH_LOSS:
                     return done(
                         1.3,
-                        f"removing pier {p.id} cuts the story strength in "
+                        f"removing pier {p.pier} of wall {p.name!r} ({p.guid}) cuts "
+                        "the story strength in "
                         f"{d.value} by {100 * loss:.0f} % (> 33 %)",
                         governing_pier=p.id,
                         strength_loss=loss,
@@ -194,7 +196,8 @@ def evaluate_redundancy(
                 elif extreme:
                     return done(
                         1.3,
-                        f"removing pier {p.id} creates an extreme torsional "
+                        f"removing pier {p.pier} of wall {p.name!r} ({p.guid}) creates "
+                        "an extreme torsional "
                         "irregularity (Type 1b)",
                         governing_pier=p.id,
                         strength_loss=loss,
@@ -233,7 +236,8 @@ def check_redundancy(
     given = config.seismic.rho
     low = given is not None and given < redundancy.evaluated
     sev = Severity.WARNING if low or redundancy.rho > 1.0 else Severity.INFO
-    text = f"SDC {redundancy.sdc}: evaluated ρ = {redundancy.evaluated:g}, {redundancy.reason}."
+    text = f"SDC {redundancy.sdc}: evaluated ρ = {redundancy.evaluated:g}, "
+    text += f"{redundancy.reason}."
     if given is not None:
         text += f" The config gives seismic.rho = {given:g}, which is used."
     if low:

@@ -210,7 +210,8 @@ def _ratio_finding(
     d = pier.direction.value if pier.direction else "-"
     factor = f", aspect factor {c.aspect_factor:.3f}" if c.aspect_factor != 1.0 else ""
     text = (
-        f"Pier {pier.pier} of wall {pier.name!r} ({pier.guid}) on line {pier.line or '-'} "
+        f"Pier {pier.pier} of wall {pier.name!r} ({pier.guid}) on line "
+        f"{pier.line or '-'} "
         f"supporting {pier.level!r}: QE = {fmt(c.force, 'force', config)}, "
         f"v = {f:g}·ρ·QE/L = {fmt(c.unit_shear, 'force_per_length', config)} "
         f"over L = {fmt(pier.length, 'length', config)} ({basis}, "
@@ -265,11 +266,12 @@ def _missing_finding(
     else:
         fix = (
             f"assembly {assembly.name!r} gives no unit shear capacity: set "
-            "unit_shear_capacity, sheathing + fastener + edge_spacing, or nominal_unit_shear"
+            "unit_shear_capacity, sheathing + fastener + edge_spacing, or "
+            "nominal_unit_shear"
         )
     return Finding(
         rule=RULE,
-        clause=combination_clause(config.design_basis),
+        clause="",  # a data problem, not a provision
         severity=Severity.ERROR,
         level=pier.level,
         direction=pier.direction,

@@ -48,7 +48,8 @@ def check_unmatched_shear_walls(
             title="Shear wall with no assembly",
             description=(
                 f"Wall {w.name!r} ({w.guid}) on {w.storey!r} is a shear wall "
-                f"(PredefinedType {w.predefined_type or '-'}) but no assembly matches it: "
+                f"(PredefinedType {w.predefined_type or '-'}) but no assembly matches "
+                "it: "
                 f"no capacity assigned: add an [[assemblies]] entry matching {what}."
             ),
             discriminator="no assembly",

@@ -104,9 +104,12 @@ def check_aspect_ratio(allocation: Allocation, config: ProjectConfig) -> list[Fi
                 title=f"Shear wall pier too slender: h/b = {ratio:.2f} > {limit:.2f}",
                 description=(
                     f"Pier {pier.pier} of wall {pier.name!r} ({pier.guid}) supporting "
-                    f"{pier.level!r}: height {pier.height:.2f} m over length {pier.length:.2f} m "
-                    f"gives h/b = {ratio:.2f}, above the {limit:.2f} limit for assembly "
-                    f"{assembly.name!r}; it is not counted as a shear wall pier (capacity 0). "
+                    f"{pier.level!r}: height {pier.height:.2f} m over length "
+                    f"{pier.length:.2f} m "
+                    f"gives h/b = {ratio:.2f}, above the {limit:.2f} limit for "
+                    "assembly "
+                    f"{assembly.name!r}; it is not counted as a shear wall pier "
+                    "(capacity 0). "
                     "Lengthen the pier, or remove it from the shear wall assembly."
                 ),
                 demand=ratio,

@@ -1,4 +1,6 @@
-"""Validate a BCF-XML zip against the official buildingSMART XSDs in ../shared/bcf_schemas.
+"""Validate a BCF-XML zip against the official buildingSMART XSDs.
+
+The XSDs are read in place from ../shared/bcf_schemas.
 
 Use ``assert_bcf_valid(path)`` from any test; it skips the calling test with a clear
 reason when the schema folder is absent (the schemas are never copied into the project).

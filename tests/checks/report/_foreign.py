@@ -39,13 +39,22 @@ def _date() -> XmlDateTime:
 
 
 def add_reply(
-    path_in, path_out, topic_guid: str, text: str, *, new_status: str | None = None, guid: str = REPLY
+    path_in,
+    path_out,
+    topic_guid: str,
+    text: str,
+    *,
+    new_status: str | None = None,
+    guid: str = REPLY,
 ) -> None:
     """The architect replies to one of our topics (and may change its status)."""
     b = bcf.bcfxml.load(path_in)
     mdl = m3 if b.version.version_id == "3.0" else m2
     th = b.topics[topic_guid]
-    th.comments = [*th.comments, mdl.Comment(guid=guid, date=_date(), author=ARCHITECT, comment=text)]
+    th.comments = [
+        *th.comments,
+        mdl.Comment(guid=guid, date=_date(), author=ARCHITECT, comment=text),
+    ]
     if new_status:
         th.topic.topic_status = new_status
         th.topic.modified_date = _date()
@@ -55,13 +64,19 @@ def add_reply(
 
 
 def add_foreign_topic(path) -> None:
-    """The architect adds a topic of their own, with a viewpoint, a snapshot and a comment."""
+    """The architect adds a topic of their own: a viewpoint, a snapshot, a comment."""
     b = bcf.bcfxml.load(path)
     version = b.version.version_id
     mdl = m3 if version == "3.0" else m2
-    th = b.add_topic("Stair moved", "We moved the stair 1 m east.", ARCHITECT, topic_type="Request", topic_status="Open")
+    th = b.add_topic(
+        "Stair moved",
+        "We moved the stair 1 m east.",
+        ARCHITECT,
+        topic_type="Request",
+        topic_status="Open",
+    )
     th.topic.creation_date = _date()
-    # bcf-client's add_topic uses a random GUID; give ours a fixed one (folder = GUID, bug 5)
+    # bcf-client's add_topic uses a random GUID; use a fixed one (folder = GUID, bug 5)
     b.topics.pop(th.guid)
     th.topic.guid = FOREIGN_TOPIC
     th._topic_dir = type(th._topic_dir)(FOREIGN_TOPIC)

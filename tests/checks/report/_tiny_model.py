@@ -24,10 +24,17 @@ ARCHITECT = "architect@example.com"
 
 def gid(name: str) -> str:
     """A valid, deterministic IFC GlobalId (22 characters) for a name."""
-    return ifcopenshell.guid.compress(uuid.uuid5(uuid.NAMESPACE_URL, f"shearline-test/{name}").hex)
+    return ifcopenshell.guid.compress(
+        uuid.uuid5(uuid.NAMESPACE_URL, f"shearline-test/{name}").hex
+    )
 
 
-_SIDES = (((0.0, 0.0), (10.0, 0.0)), ((10.0, 0.0), (10.0, 8.0)), ((10.0, 8.0), (0.0, 8.0)), ((0.0, 8.0), (0.0, 0.0)))
+_SIDES = (
+    ((0.0, 0.0), (10.0, 0.0)),
+    ((10.0, 0.0), (10.0, 8.0)),
+    ((10.0, 8.0), (0.0, 8.0)),
+    ((0.0, 8.0), (0.0, 0.0)),
+)
 _NAMES = ("S", "E", "N", "W")
 
 
@@ -52,7 +59,13 @@ def _walls(storey: str, level: str, base: float) -> tuple[WallSegment, ...]:
 def tiny_model(*, south_wall_at_level_1: bool = True) -> BuildingModel:
     """The box; optionally without the south wall of Level 1 (a 'revised' model)."""
     levels = (
-        Level(name="Level 1", guid=gid("L1"), elevation=0.0, index=0, is_diaphragm_level=False),
+        Level(
+            name="Level 1",
+            guid=gid("L1"),
+            elevation=0.0,
+            index=0,
+            is_diaphragm_level=False,
+        ),
         Level(name="Level 2", guid=gid("L2"), elevation=3.0, index=1),
         Level(name="Roof", guid=gid("R"), elevation=6.0, index=2),
     )
@@ -60,7 +73,12 @@ def tiny_model(*, south_wall_at_level_1: bool = True) -> BuildingModel:
         [(0, 0), (10, 0), (10, 8), (0, 8)], [[(2, 2), (4, 2), (4, 4), (2, 4)]]
     )
     diaphragm = Diaphragm(
-        id="Level 2/D1", level="Level 2", polygon=floor, slab_guids=(gid("slab2"),), kind="FLOOR", elevation=3.0
+        id="Level 2/D1",
+        level="Level 2",
+        polygon=floor,
+        slab_guids=(gid("slab2"),),
+        kind="FLOOR",
+        elevation=3.0,
     )
     walls = _walls("Level 1", "Level 2", 0.0) + _walls("Level 2", "Roof", 3.0)
     if not south_wall_at_level_1:
@@ -76,7 +94,9 @@ def tiny_model(*, south_wall_at_level_1: bool = True) -> BuildingModel:
     )
 
 
-def wall_finding(side: str = "S", *, storey: str = "Level 1", demand: float = 5000.0) -> Finding:
+def wall_finding(
+    side: str = "S", *, storey: str = "Level 1", demand: float = 5000.0
+) -> Finding:
     """An over-capacity finding on one wall (unit shear, N/m)."""
     level = "Level 2" if storey == "Level 1" else "Roof"
     return Finding(
@@ -87,7 +107,10 @@ def wall_finding(side: str = "S", *, storey: str = "Level 1", demand: float = 50
         direction=Direction.X if side in "SN" else Direction.Y,
         guids=(gid(f"{storey}/{side}"),),
         title=f"Wall {storey} {side} over capacity",
-        description="Unit shear above the assembly's allowable value; lengthen the wall or upgrade the assembly.",
+        description=(
+            "Unit shear above the assembly's allowable value; "
+            "lengthen the wall or upgrade the assembly."
+        ),
         demand=demand,
         capacity=3800.0,
         unit="N/m",

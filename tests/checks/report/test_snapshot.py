@@ -29,14 +29,18 @@ def _count(image: Image.Image, rgb: tuple[int, int, int]) -> int:
 
 
 def test_png_reopens_with_the_requested_size():
-    png = plan_snapshot_png(tiny_model(), level="Level 2", highlight=[gid("Level 1/S")], size=(640, 480))
+    png = plan_snapshot_png(
+        tiny_model(), level="Level 2", highlight=[gid("Level 1/S")], size=(640, 480)
+    )
     assert png.startswith(b"\x89PNG\r\n\x1a\n")  # PNG signature, ISO/IEC 15948 §5.2
     image = Image.open(io.BytesIO(png))
     assert (image.format, image.size) == ("PNG", (640, 480))
 
 
 def test_highlighted_wall_is_drawn_in_the_strong_colour_at_the_south():
-    image = _open(plan_snapshot_png(tiny_model(), level="Level 2", highlight=[gid("Level 1/S")]))
+    image = _open(
+        plan_snapshot_png(tiny_model(), level="Level 2", highlight=[gid("Level 1/S")])
+    )
     rows, _cols = np.nonzero(_mask(image, HIGHLIGHT_RGB))
     assert rows.size > 1000  # a 10 m wall at ~60 px/m, >= 6 px wide
     # plan Y up: the south wall (y = 0 m) is in the bottom half of the image
@@ -54,21 +58,27 @@ def test_diaphragm_hole_is_left_open():
     size = (800, 600)
     image = _open(plan_snapshot_png(model, level="Level 2", highlight=[], size=size))
     plan = snapshot._Plan((0.0, 0.0, 10.0, 8.0), size)  # the box's plan bounds [m]
-    hole = tuple(round(c) for c in plan.px(3.0, 3.0))  # centre of the 2 m x 2 m stair hole
+    hole = tuple(
+        round(c) for c in plan.px(3.0, 3.0)
+    )  # centre of the 2 m x 2 m stair hole
     slab = tuple(round(c) for c in plan.px(7.0, 5.0))
     assert image.getpixel(hole) == snapshot._BACKGROUND
     assert image.getpixel(slab) == snapshot._SLAB_FILL
 
 
 def test_level_without_diaphragm_draws_walls_only():
-    image = _open(plan_snapshot_png(tiny_model(), level="Roof", highlight=[gid("Level 2/E")]))
+    image = _open(
+        plan_snapshot_png(tiny_model(), level="Roof", highlight=[gid("Level 2/E")])
+    )
     assert _count(image, snapshot._SLAB_FILL) == 0
     assert _count(image, HIGHLIGHT_RGB) > 500
     assert _count(image, snapshot._WALL_RGB) > 500
 
 
 def test_highlighted_slab_is_tinted():
-    image = _open(plan_snapshot_png(tiny_model(), level="Level 2", highlight=[gid("slab2")]))
+    image = _open(
+        plan_snapshot_png(tiny_model(), level="Level 2", highlight=[gid("slab2")])
+    )
     assert _count(image, snapshot._SLAB_HIGHLIGHT_FILL) > 10_000
 
 
@@ -78,8 +88,13 @@ def test_same_inputs_give_the_same_bytes():
     assert a == b
 
 
-@pytest.mark.parametrize(("target", "expected"), [(1.3, 1.0), (2.0, 2.0), (4.9, 2.0), (7.0, 5.0), (13.0, 10.0)])
-def test_scale_bar_length_is_a_1_2_5_step(target, expected):  # common practice: 1-2-5 scale bars
+@pytest.mark.parametrize(
+    ("target", "expected"),
+    [(1.3, 1.0), (2.0, 2.0), (4.9, 2.0), (7.0, 5.0), (13.0, 10.0)],
+)
+def test_scale_bar_length_is_a_1_2_5_step(
+    target, expected
+):  # common practice: 1-2-5 scale bars
     assert snapshot._nice_length(target) == pytest.approx(expected)
 
 

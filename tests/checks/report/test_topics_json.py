@@ -19,10 +19,22 @@ from checks.errors import BcfError
 from checks.findings import topic_guid
 from checks.report.bcf_read import read_topics
 from checks.report.bcf_write import write_bcf
-from checks.report.topics_json import SCHEMA, topics_from_json, topics_to_dict, topics_to_json
+from checks.report.topics_json import (
+    SCHEMA,
+    topics_from_json,
+    topics_to_dict,
+    topics_to_json,
+)
 from tests.checks.report._bcf_xsd import BCF_SCHEMAS
 from tests.checks.report._foreign import add_foreign_topic, add_reply
-from tests.checks.report._tiny_model import AUTHOR, NOW, diaphragm_finding, gid, tiny_model, wall_finding
+from tests.checks.report._tiny_model import (
+    AUTHOR,
+    NOW,
+    diaphragm_finding,
+    gid,
+    tiny_model,
+    wall_finding,
+)
 
 API = BCF_SCHEMAS / "api" / "3.0" / "Collaboration"
 TOPIC = "Topic/topic_GET.json"
@@ -56,7 +68,10 @@ def draft3_errors(value, schema: dict, base: Path, where: str = "$") -> list[str
     errors: list[str] = []
     types = schema.get("type")
     if types is not None:
-        names = ["null" if t is None else t for t in (types if isinstance(types, list) else [types])]
+        names = [
+            "null" if t is None else t
+            for t in (types if isinstance(types, list) else [types])
+        ]
         if not any(_TYPES[t](value) for t in names):
             return [f"{where}: {value!r} is not of type {names}"]
     if "enum" in schema and value not in schema["enum"]:
@@ -68,7 +83,11 @@ def draft3_errors(value, schema: dict, base: Path, where: str = "$") -> list[str
             errors.append(f"{where}: not base64")
     if isinstance(value, dict) and "properties" in schema:
         props = schema["properties"]
-        errors += [f"{where}.{k}: required" for k, s in props.items() if s.get("required") is True and k not in value]
+        errors += [
+            f"{where}.{k}: required"
+            for k, s in props.items()
+            if s.get("required") is True and k not in value
+        ]
         for k, v in value.items():
             if k not in props:
                 errors.append(f"{where}.{k}: unknown key")
@@ -109,10 +128,14 @@ def test_checker_rejects_unknown_and_missing_keys():  # the checker is not vacuo
     assert "$.colour: unknown key" in errors
     assert "$.creation_date: required" in errors
     assert any(e.startswith("$.title:") for e in errors)
-    assert check({"snapshot": {"snapshot_type": "gif"}}, VIEWPOINT) == ["$.snapshot.snapshot_type: 'gif' not in ['jpg', 'png']"]
+    assert check({"snapshot": {"snapshot_type": "gif"}}, VIEWPOINT) == [
+        "$.snapshot.snapshot_type: 'gif' not in ['jpg', 'png']"
+    ]
 
 
-def test_every_object_validates_against_bcf_api_3_0(tmp_path):  # BCF-API 3.0 JSON schemas
+def test_every_object_validates_against_bcf_api_3_0(
+    tmp_path,
+):  # BCF-API 3.0 JSON schemas
     _path, doc = _write_json(tmp_path)
     assert doc["schema"] == SCHEMA
     assert _all_errors(doc) == []
@@ -124,7 +147,12 @@ def test_shape_and_extension_numbers(tmp_path):
     f = wall_finding("S")
     assert set(entry) == {"topic", "comments", "viewpoints", "shearline"}
     t = entry["topic"]
-    assert (t["guid"], t["topic_status"], t["topic_type"], t["priority"]) == (topic_guid(f.id), "Open", "Error", "High")
+    assert (t["guid"], t["topic_status"], t["topic_type"], t["priority"]) == (
+        topic_guid(f.id),
+        "Open",
+        "Error",
+        "High",
+    )
     assert t["creation_date"] == "2024-05-01T12:00:00Z"
     assert entry["shearline"] == {
         "finding_id": f.id,
@@ -142,7 +170,11 @@ def test_shape_and_extension_numbers(tmp_path):
     (vp,) = entry["viewpoints"]
     assert vp["components"]["selection"] == [{"ifc_guid": gid("Level 1/S")}]
     assert set(vp["perspective_camera"]) == {
-        "camera_view_point", "camera_direction", "camera_up_vector", "field_of_view", "aspect_ratio"
+        "camera_view_point",
+        "camera_direction",
+        "camera_up_vector",
+        "field_of_view",
+        "aspect_ratio",
     }
     assert base64.b64decode(vp["snapshot"]["snapshot_data"]).startswith(b"\x89PNG")
 
@@ -155,7 +187,14 @@ def test_json_round_trip_is_lossless(tmp_path):
 @pytest.mark.parametrize("version", ["2.1", "3.0"])
 def test_json_of_a_bcf_with_foreign_content_validates(tmp_path, version):
     bcf_path = tmp_path / "ours.bcf"
-    write_bcf([wall_finding("S")], bcf_path, model=tiny_model(), author=AUTHOR, version=version, now=NOW)
+    write_bcf(
+        [wall_finding("S")],
+        bcf_path,
+        model=tiny_model(),
+        author=AUTHOR,
+        version=version,
+        now=NOW,
+    )
     add_reply(bcf_path, bcf_path, topic_guid(wall_finding("S").id), "Noted.")
     add_foreign_topic(bcf_path)
     doc = topics_to_dict(read_topics(bcf_path))
@@ -170,7 +209,11 @@ def test_json_of_a_bcf_with_foreign_content_validates(tmp_path, version):
     [
         ('{"schema": "other/1", "topics": []}', "'schema' must be"),
         ('{"schema": "shearline.topics/1"}', "key 'topics' missing"),
-        ('{"schema": "shearline.topics/1", "topics": [{"topic": {"guid": "g"}, "comments": [], "viewpoints": []}]}', r"topics\[0\].topic: key 'title'"),
+        (
+            '{"schema": "shearline.topics/1", "topics": '
+            '[{"topic": {"guid": "g"}, "comments": [], "viewpoints": []}]}',
+            r"topics\[0\].topic: key 'title'",
+        ),
         ("not json", "cannot read the topics JSON"),
     ],
 )

@@ -17,29 +17,51 @@ from checks.rules.sdpws_2015.aspect_ratio import (
 from ._build import allocation, assembly, config, pier
 
 
-@pytest.mark.parametrize(("kind", "blocked", "limit"), [
-    (AssemblyKind.WOOD_PANEL, True, 3.5),  # AWC SDPWS-2015 §4.3.4, blocked WSP (from memory)
-    (AssemblyKind.WOOD_PANEL, False, 2.0),  # AWC SDPWS-2015 §4.3.4, unblocked (from memory)
-    (AssemblyKind.GYPSUM, True, 2.0),  # AWC SDPWS-2015 §4.3.4, gypsum board (from memory)
-    (AssemblyKind.CONCRETE, True, None),  # no SDPWS limit for concrete
-])
+@pytest.mark.parametrize(
+    ("kind", "blocked", "limit"),
+    [
+        (
+            AssemblyKind.WOOD_PANEL,
+            True,
+            3.5,
+        ),  # AWC SDPWS-2015 §4.3.4, blocked WSP (from memory)
+        (
+            AssemblyKind.WOOD_PANEL,
+            False,
+            2.0,
+        ),  # AWC SDPWS-2015 §4.3.4, unblocked (from memory)
+        (
+            AssemblyKind.GYPSUM,
+            True,
+            2.0,
+        ),  # AWC SDPWS-2015 §4.3.4, gypsum board (from memory)
+        (AssemblyKind.CONCRETE, True, None),  # no SDPWS limit for concrete
+    ],
+)
 def test_limits(kind, blocked, limit):
     assert aspect_ratio_limit(assembly(kind=kind, blocked=blocked)) == limit
 
 
-@pytest.mark.parametrize(("ratio", "factor"), [
-    (1.5, 1.0),  # h/bs ≤ 2: no reduction, AWC SDPWS-2015 §4.3.4.2 (from memory)
-    (2.0, 1.0),  # 1.25 − 0.125·2.0 = 1.0, AWC SDPWS-2015 §4.3.4.2 (from memory)
-    (3.0, 0.875),  # 1.25 − 0.125·3.0, AWC SDPWS-2015 §4.3.4.2 (from memory)
-    (3.5, 0.8125),  # 1.25 − 0.125·3.5 at the limit, AWC SDPWS-2015 §4.3.4.2 (from memory)
-    (3.6, 0.0),  # beyond 3.5: not counted, AWC SDPWS-2015 §4.3.4 (from memory)
-])
+@pytest.mark.parametrize(
+    ("ratio", "factor"),
+    [
+        (1.5, 1.0),  # h/bs ≤ 2: no reduction, AWC SDPWS-2015 §4.3.4.2 (from memory)
+        (2.0, 1.0),  # 1.25 − 0.125·2.0 = 1.0, AWC SDPWS-2015 §4.3.4.2 (from memory)
+        (3.0, 0.875),  # 1.25 − 0.125·3.0, AWC SDPWS-2015 §4.3.4.2 (from memory)
+        (
+            3.5,
+            0.8125,
+        ),  # 1.25 − 0.125·3.5 at the limit, AWC SDPWS-2015 §4.3.4.2 (from memory)
+        (3.6, 0.0),  # beyond 3.5: not counted, AWC SDPWS-2015 §4.3.4 (from memory)
+    ],
+)
 def test_factor(ratio, factor):
     assert aspect_factor(assembly(), ratio) == pytest.approx(factor, rel=1e-12)
 
 
 def test_override_and_gypsum_has_no_factor():
     from dataclasses import replace
+
     a = replace(assembly(), aspect_ratio_limit=2.0)
     assert aspect_factor(a, 2.5) == 0.0
     assert aspect_factor(assembly(kind=AssemblyKind.GYPSUM), 1.9) == 1.0
@@ -51,9 +73,11 @@ def test_slender_pier_is_an_error():
     found = check_aspect_ratio(allocation([tall, ok]), config(assemblies=(assembly(),)))
     assert len(found) == 1
     f = found[0]
-    assert f.severity is Severity.ERROR and f.guids == ("g1",)
+    assert f.severity is Severity.ERROR
+    assert f.guids == ("g1",)
     assert f.clause == "AWC SDPWS-2015 §4.3.4"
-    assert f.demand == pytest.approx(2.5 / 0.6) and f.capacity == 3.5
+    assert f.demand == pytest.approx(2.5 / 0.6)
+    assert f.capacity == 3.5
 
 
 @given(ratio=st.floats(2.0, 3.5))

@@ -1,4 +1,5 @@
-"""Horizontal irregularities, ASCE 7-16 Table 12.3-1 (checks.rules.asce7_16.irregularities)."""
+"""Horizontal irregularities, ASCE 7-16 Table 12.3-1 "
+"(checks.rules.asce7_16.irregularities)."""
 
 from __future__ import annotations
 
@@ -25,13 +26,20 @@ L_SHAPE = Polygon([(0, 0), (20, 0), (20, 10), (10, 10), (10, 20), (0, 20)])
 def test_l_shape_by_hand():
     (c,) = reentrant_corners(L_SHAPE)
     assert c.point == (10.0, 10.0)
-    assert c.projection == (pytest.approx(10.0), pytest.approx(10.0))  # 20 − 10 each way
-    assert c.ratio == (pytest.approx(0.5), pytest.approx(0.5))  # 10/20 > 0.15, Table 12.3-1 Type 2
+    assert c.projection == (
+        pytest.approx(10.0),
+        pytest.approx(10.0),
+    )  # 20 − 10 each way
+    assert c.ratio == (
+        pytest.approx(0.5),
+        pytest.approx(0.5),
+    )  # 10/20 > 0.15, Table 12.3-1 Type 2
     assert c.irregular
 
 
 def test_shallow_notch_is_regular():
-    # notch 10 m × 2 m: projection in y 2/20 = 10 % ≤ 15 %, ASCE 7-16 Table 12.3-1 Type 2
+    # notch 10 m × 2 m: projection in y 2/20 = 10 % ≤ 15 %,
+    # ASCE 7-16 Table 12.3-1 Type 2
     shape = Polygon([(0, 0), (20, 0), (20, 18), (10, 18), (10, 20), (0, 20)])
     (c,) = reentrant_corners(shape)
     assert c.ratio == (pytest.approx(0.5), pytest.approx(0.1))
@@ -39,8 +47,11 @@ def test_shallow_notch_is_regular():
     assert reentrant_corners(box(0, 0, 30, 10)) == []  # a rectangle has none
 
 
-@given(angle=st.sampled_from([0, 90, 180, 270]), scale=st.floats(0.1, 50.0),
-       mirror=st.booleans())
+@given(
+    angle=st.sampled_from([0, 90, 180, 270]),
+    scale=st.floats(0.1, 50.0),
+    mirror=st.booleans(),
+)
 def test_verdict_invariant_under_rotation_mirror_scale(angle, scale, mirror):
     # symmetry: the ratios are dimensionless and do not depend on orientation
     shape = affinity.scale(L_SHAPE, -scale if mirror else scale, scale, origin=(0, 0))
@@ -51,18 +62,30 @@ def test_verdict_invariant_under_rotation_mirror_scale(angle, scale, mirror):
 
 def _model(poly, guids=("slab1",)):
     return BuildingModel(
-        source="m.ifc", schema="IFC4",
+        source="m.ifc",
+        schema="IFC4",
         levels=(Level(name="Roof", guid="s1", elevation=3.0, index=1),),
-        diaphragms=(Diaphragm(id="Roof/D1", level="Roof", polygon=poly, slab_guids=guids,
-                              kind="ROOF", elevation=3.0),))
+        diaphragms=(
+            Diaphragm(
+                id="Roof/D1",
+                level="Roof",
+                polygon=poly,
+                slab_guids=guids,
+                kind="ROOF",
+                elevation=3.0,
+            ),
+        ),
+    )
 
 
 def test_reentrant_finding_severity_by_sdc():
     found = check_reentrant_corners(_model(L_SHAPE), allocation(), config())  # SDC D
     assert [(f.severity, f.clause) for f in found] == [
-        (Severity.WARNING, "ASCE 7-16 Table 12.3-1")]
-    low = check_reentrant_corners(_model(L_SHAPE), allocation(),
-                                  config(SDS=0.2, SD1=0.05, S1=0.04))  # SDC B
+        (Severity.WARNING, "ASCE 7-16 Table 12.3-1")
+    ]
+    low = check_reentrant_corners(
+        _model(L_SHAPE), allocation(), config(SDS=0.2, SD1=0.05, S1=0.04)
+    )  # SDC B
     assert [f.severity for f in low] == [Severity.INFO]
 
 
@@ -70,18 +93,29 @@ def test_large_opening_type_3():
     # 10 × 10 slab with a 8 × 8 hole: 64 % open > 50 %, ASCE 7-16 Table 12.3-1 Type 3
     poly = Polygon(box(0, 0, 10, 10).exterior, [box(1, 1, 9, 9).exterior])
     (f,) = check_reentrant_corners(_model(poly), allocation(), config())
-    assert f.demand == pytest.approx(0.64) and f.capacity == 0.5
+    assert f.demand == pytest.approx(0.64)
+    assert f.capacity == 0.5
 
 
-@pytest.mark.parametrize(("ratio", "S1", "expected"), [
-    (1.15, 0.6, None),  # ≤ 1.2: regular, ASCE 7-16 Table 12.3-1 Type 1a
-    (1.30, 0.6, Severity.WARNING),  # > 1.2: Type 1a
-    (1.50, 0.6, Severity.WARNING),  # > 1.4: Type 1b in SDC D
-    (1.50, 0.8, Severity.ERROR),  # Type 1b in SDC E: not permitted, ASCE 7-16 §12.3.3.1
-])
+@pytest.mark.parametrize(
+    ("ratio", "S1", "expected"),
+    [
+        (1.15, 0.6, None),  # ≤ 1.2: regular, ASCE 7-16 Table 12.3-1 Type 1a
+        (1.30, 0.6, Severity.WARNING),  # > 1.2: Type 1a
+        (1.50, 0.6, Severity.WARNING),  # > 1.4: Type 1b in SDC D
+        (
+            1.50,
+            0.8,
+            Severity.ERROR,
+        ),  # Type 1b in SDC E: not permitted, ASCE 7-16 §12.3.3.1
+    ],
+)
 def test_torsional(ratio, S1, expected):
-    alloc = allocation(rigid=[rigid("Roof", Direction.X, 1.0), rigid("Roof", Direction.X, ratio)])
+    alloc = allocation(
+        rigid=[rigid("Roof", Direction.X, 1.0), rigid("Roof", Direction.X, ratio)]
+    )
     found = check_torsional_irregularity(alloc, config(S1=S1))
     assert [f.severity for f in found] == ([expected] if expected else [])
     if expected:
-        assert found[0].demand == pytest.approx(ratio) and found[0].guids == ("storeyRoof",)
+        assert found[0].demand == pytest.approx(ratio)
+        assert found[0].guids == ("storeyRoof",)

@@ -18,15 +18,23 @@ D = 10 * PSF * 3.0 * 2.0  # wall self weight = 2872.8 N
 
 def _case(basis, **kw):
     p = pier("g1", start=(0.0, 0.0), end=(2.0, 0.0), height=3.0)
-    return p, allocation([p], {p.id: 20e3}), config(assemblies=(assembly(**kw),), basis=basis)
+    return (
+        p,
+        allocation([p], {p.id: 20e3}),
+        config(assemblies=(assembly(**kw),), basis=basis),
+    )
 
 
 def test_asd_combination_10():
     p, alloc, cfg = _case(DesignBasis.ASD)
     h = hold_down_forces(alloc, cfg)[p.id]
     assert h.dead_load == pytest.approx(D, rel=1e-12)
-    assert h.overturning_moment == pytest.approx(0.7 * 20e3 * 3.0)  # 0.7·QE·h, ASCE 7-16 §2.4.5
-    assert h.resisting_moment == pytest.approx((0.6 - 0.14 * 1.0) * D * 2.0 / 2)  # comb. 10
+    assert h.overturning_moment == pytest.approx(
+        0.7 * 20e3 * 3.0
+    )  # 0.7·QE·h, ASCE 7-16 §2.4.5
+    assert h.resisting_moment == pytest.approx(
+        (0.6 - 0.14 * 1.0) * D * 2.0 / 2
+    )  # comb. 10
     # T = (42000 − 0.46·2872.82·1.0)/2.0 = 20339.25 N, ASCE 7-16 §2.4.5 combination 10
     assert h.tension == pytest.approx(20339.25, rel=1e-6)
 
@@ -54,17 +62,24 @@ def test_one_info_finding_per_level():
     found = check_overturning(alloc, cfg)
     assert len(found) == 1
     f = found[0]
-    assert f.severity is Severity.INFO and f.clause == "ASCE 7-16 §2.4.5"
+    assert f.severity is Severity.INFO
+    assert f.clause == "ASCE 7-16 §2.4.5"
     assert f.demand == pytest.approx(20339.25, rel=1e-6)  # the larger of the two
     assert f.guids == ("storeyRoof",)
 
 
-@given(force=st.floats(1e3, 1e6), length=st.floats(0.5, 12.0), height=st.floats(2.0, 4.0))
+@given(
+    force=st.floats(1e3, 1e6), length=st.floats(0.5, 12.0), height=st.floats(2.0, 4.0)
+)
 def test_moment_equilibrium(force, length, height):
     # statics about the compression end: T·L + Mr = M whenever there is uplift
     p = pier("g1", start=(0.0, 0.0), end=(length, 0.0), height=height)
-    h = hold_down_forces(allocation([p], {p.id: force}), config(assemblies=(assembly(),)))[p.id]
+    h = hold_down_forces(
+        allocation([p], {p.id: force}), config(assemblies=(assembly(),))
+    )[p.id]
     if h.tension > 0:
-        assert h.tension * h.arm + h.resisting_moment == pytest.approx(h.overturning_moment)
+        assert h.tension * h.arm + h.resisting_moment == pytest.approx(
+            h.overturning_moment
+        )
     else:
         assert h.resisting_moment >= h.overturning_moment

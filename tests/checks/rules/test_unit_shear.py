@@ -10,7 +10,11 @@ from hypothesis import strategies as st
 
 from checks.findings import Severity
 from checks.project import DesignBasis
-from checks.rules.asce7_16.unit_shear import check_unit_shear, pier_capacity, pier_checks
+from checks.rules.asce7_16.unit_shear import (
+    check_unit_shear,
+    pier_capacity,
+    pier_checks,
+)
 from ifc_bridge.model import BuildingModel, Level, WallSegment
 
 from ._build import PLF, allocation, assembly, config, pier
@@ -23,21 +27,35 @@ def _one(force: float, *, length: float = 2.0, height: float = 2.5, **cfg):
     return p, allocation([p], {p.id: force}), config(assemblies=(assembly(),), **cfg)
 
 
-@pytest.mark.parametrize(("basis", "rho", "expected"), [
-    (DesignBasis.ASD, None, 0.7 * 1.0 * 10e3 / 2.0),  # ASCE 7-16 §2.4.5: 0.7·ρ·QE, ρ = 1.0
-    (DesignBasis.ASD, 1.3, 0.7 * 1.3 * 10e3 / 2.0),  # ASCE 7-16 §2.4.5 with ρ = 1.3 (§12.3.4.2)
-    (DesignBasis.LRFD, None, 1.0 * 1.0 * 10e3 / 2.0),  # ASCE 7-16 §2.3.6: 1.0·ρ·QE
-])
+@pytest.mark.parametrize(
+    ("basis", "rho", "expected"),
+    [
+        (
+            DesignBasis.ASD,
+            None,
+            0.7 * 1.0 * 10e3 / 2.0,
+        ),  # ASCE 7-16 §2.4.5: 0.7·ρ·QE, ρ = 1.0
+        (
+            DesignBasis.ASD,
+            1.3,
+            0.7 * 1.3 * 10e3 / 2.0,
+        ),  # ASCE 7-16 §2.4.5 with ρ = 1.3 (§12.3.4.2)
+        (DesignBasis.LRFD, None, 1.0 * 1.0 * 10e3 / 2.0),  # ASCE 7-16 §2.3.6: 1.0·ρ·QE
+    ],
+)
 def test_unit_shear_demand(basis, rho, expected):
     p, alloc, cfg = _one(10e3, basis=basis, rho=rho)
     c = pier_checks(alloc, cfg)[p.id]
     assert c.unit_shear == pytest.approx(expected, rel=1e-12)  # v = f·ρ·QE/L, exact
-    assert c.capacity == pytest.approx(CAP, rel=1e-12)  # h/b = 1.25 ≤ 2: no aspect factor
+    assert c.capacity == pytest.approx(
+        CAP, rel=1e-12
+    )  # h/b = 1.25 ≤ 2: no aspect factor
     assert c.dcr == pytest.approx(expected / CAP, rel=1e-12)
 
 
 def test_aspect_factor_reduces_capacity():
-    # h/b = 2.5/1.0 = 2.5: factor 1.25 − 0.125·2.5 = 0.9375, AWC SDPWS-2015 §4.3.4.2 (from memory)
+    # h/b = 2.5/1.0 = 2.5: factor 1.25 − 0.125·2.5 = 0.9375,
+    # AWC SDPWS-2015 §4.3.4.2 (from memory)
     p, alloc, cfg = _one(1e3, length=1.0)
     c = pier_checks(alloc, cfg)[p.id]
     assert c.aspect_factor == pytest.approx(0.9375, rel=1e-12)
@@ -45,13 +63,16 @@ def test_aspect_factor_reduces_capacity():
     assert pier_capacity(p, cfg) == (pytest.approx(0.9375 * CAP), pytest.approx(0.9375))
 
 
-@pytest.mark.parametrize(("force", "severity"), [
-    (10.0e3, None),  # v = 3500 N/m, DCR 0.922: no finding
-    (10.5e3, Severity.WARNING),  # v = 3675 N/m, DCR 0.969 > 0.95: near capacity
-    (11.0e3, Severity.ERROR),  # v = 3850 N/m, DCR 1.015 > 1.0: over capacity
-])
+@pytest.mark.parametrize(
+    ("force", "severity"),
+    [
+        (10.0e3, None),  # v = 3500 N/m, DCR 0.922: no finding
+        (10.5e3, Severity.WARNING),  # v = 3675 N/m, DCR 0.969 > 0.95: near capacity
+        (11.0e3, Severity.ERROR),  # v = 3850 N/m, DCR 1.015 > 1.0: over capacity
+    ],
+)
 def test_dcr_severity(force, severity):
-    p, alloc, cfg = _one(force)
+    _, alloc, cfg = _one(force)
     found = check_unit_shear(alloc, cfg)
     assert [f.severity for f in found] == ([severity] if severity else [])
     if severity:
@@ -64,19 +85,35 @@ def test_dcr_severity(force, severity):
 
 def test_no_assembly_is_an_error_naming_the_type():
     p = pier("g2", start=(0.0, 0.0), end=(3.0, 0.0), assembly="")
-    wall = WallSegment(guid="g2", name="W-g2", storey="Ground", level="Roof",
-                       base_elevation=0.0, top_elevation=2.5, start=(0.0, 0.0),
-                       end=(3.0, 0.0), thickness=0.15, type_name="SW-X", is_shear_wall=True)
-    model = BuildingModel(source="m.ifc", schema="IFC4",
-                          levels=(Level(name="Ground", guid="s0", elevation=0.0, index=0),),
-                          walls=(wall,))
+    wall = WallSegment(
+        guid="g2",
+        name="W-g2",
+        storey="Ground",
+        level="Roof",
+        base_elevation=0.0,
+        top_elevation=2.5,
+        start=(0.0, 0.0),
+        end=(3.0, 0.0),
+        thickness=0.15,
+        type_name="SW-X",
+        is_shear_wall=True,
+    )
+    model = BuildingModel(
+        source="m.ifc",
+        schema="IFC4",
+        levels=(Level(name="Ground", guid="s0", elevation=0.0, index=0),),
+        walls=(wall,),
+    )
     alloc = allocation([p], {p.id: 5e3})
     found = check_unit_shear(alloc, config(), model=model)
-    assert len(found) == 1 and found[0].severity is Severity.ERROR
+    assert len(found) == 1
+    assert found[0].severity is Severity.ERROR
     assert "no capacity assigned: add an [[assemblies]] entry matching type 'SW-X'" in (
-        found[0].description)
+        found[0].description
+    )
     c = pier_checks(alloc, config())[p.id]
-    assert c.capacity is None and c.dcr is None  # never a silent zero
+    assert c.capacity is None  # never a silent zero
+    assert c.dcr is None
 
 
 def test_assembly_without_capacity_is_an_error():
@@ -91,7 +128,9 @@ def test_pier_beyond_aspect_limit_has_zero_capacity_and_no_ratio():
     # h/b = 2.5/0.5 = 5 > 3.5, AWC SDPWS-2015 §4.3.4 (from memory): not counted
     p, alloc, cfg = _one(1e3, length=0.5)
     c = pier_checks(alloc, cfg)[p.id]
-    assert c.aspect_factor == 0.0 and c.capacity == 0.0 and c.dcr is None
+    assert c.aspect_factor == 0.0
+    assert c.capacity == 0.0
+    assert c.dcr is None
     assert check_unit_shear(alloc, cfg) == []  # the aspect ratio rule reports it
 
 
@@ -99,7 +138,9 @@ def test_pier_beyond_aspect_limit_has_zero_capacity_and_no_ratio():
 @given(force=st.floats(1e2, 1e6), length=st.floats(0.8, 20.0), seed=st.integers(0, 99))
 def test_demand_equilibrium_and_order_independence(force, length, seed):
     # statics: v·L = f·ρ·QE; findings do not depend on the order of the piers
-    piers = [pier(f"g{i}", start=(0.0, 3.0 * i), end=(length, 3.0 * i)) for i in range(4)]
+    piers = [
+        pier(f"g{i}", start=(0.0, 3.0 * i), end=(length, 3.0 * i)) for i in range(4)
+    ]
     forces = {p.id: force * (i + 1) for i, p in enumerate(piers)}
     cfg = config(assemblies=(assembly(),))
     checks = pier_checks(allocation(piers, forces), cfg)

@@ -1,0 +1,50 @@
+"""``findings.bcf`` and ``findings.json`` of a check run, carrying a previous file forward.
+
+With ``previous`` (last run's ``findings.bcf`` or ``findings.json``), the design team's
+topics, comments, viewpoints and snapshots are kept; topics whose finding is gone are
+closed with a comment, still-true ones get a comment with the new numbers, new findings
+become new topics (see :mod:`checks.roundtrip`).
+"""
+
+from __future__ import annotations
+
+import os
+from pathlib import Path
+
+from checks.report.bcf_read import read_topics
+from checks.report.bcf_write import write_bcf
+from checks.report.topics_json import topics_to_json
+
+__all__ = ["write_findings"]
+
+
+def write_findings(
+    run, out: Path, *, previous: str | os.PathLike | None, version: str
+) -> dict[str, Path]:
+    """Write ``findings.bcf`` and ``findings.json`` into ``out``.
+
+    Args:
+        run: A :class:`checks.pipeline.CheckRun`.
+        out: Output folder.
+        previous: Previous BCF zip or JSON to update, or None.
+        version: BCF version ``"2.1"`` or ``"3.0"`` (an update keeps the previous one's).
+
+    Returns:
+        ``{"bcf": path, "findings": path}``.
+
+    Raises:
+        BcfError: ``previous`` cannot be read safely.
+    """
+    prev = read_topics(previous) if previous is not None else None
+    common = {
+        "model": run.model,
+        "author": run.config.author,
+        "version": version,
+        "project_name": run.config.name,
+        "ifc_filename": Path(run.model.source).name,
+        "previous": prev,
+    }
+    bcf_path, json_path = out / "findings.bcf", out / "findings.json"
+    write_bcf(run.findings, bcf_path, **common)
+    topics_to_json(run.findings, json_path, **common)
+    return {"bcf": bcf_path, "findings": json_path}
