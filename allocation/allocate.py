@@ -142,7 +142,7 @@ def allocate(
     all_lines: list[ResistanceLine] = []
     piers_by_level: dict[str, list[Pier]] = {}
     for lv in levels:
-        level_index = model.level(lv.level).index
+        level_index = model.level(lv.level).index + 1  # 1-based: "Level 2" -> "L2-X-1"
         own = [p for p in piers if p.level == lv.level]
         lines, own, found = find_lines(
             own, model.diaphragms_of(lv.level), level=lv.level,

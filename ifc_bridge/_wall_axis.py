@@ -106,21 +106,25 @@ def wall_axis(
     ]
     if not reps:
         return AxisInfo(direction=None, curved=False)
+    items = reps[0].Items
+    if any(i.is_a("IfcMappedItem") for i in items):
+        resolved = ifcopenshell.util.representation.resolve_items(reps[0])
+    else:  # the common case, without resolve_items' overhead
+        resolved = [{"item": i, "matrix": None} for i in items]
     m0 = placement_matrix(wall.ObjectPlacement, cache)
-    for resolved in ifcopenshell.util.representation.resolve_items(reps[0]):
-        pts, curved = _points(resolved["item"])
+    for r in resolved:
+        pts, curved = _points(r["item"])
         if pts is None or len(pts) < 2:
             return AxisInfo(direction=None, curved=curved)
-        m = m0 @ resolved["matrix"]
-        local = np.asarray(pts, dtype=np.float64)
-        h = np.c_[local, np.zeros(len(local)), np.ones(len(local))]
-        world = (m @ h.T).T[:, :2]
+        m = m0 if r["matrix"] is None else m0 @ r["matrix"]
+        local = np.asarray(
+            [(*p, 0.0, 1.0)[:4] if len(p) == 2 else (*p[:3], 1.0) for p in pts]
+        )
+        world = (m @ local.T).T[:, :2]
         chord = world[-1] - world[0]
-        length = float(np.linalg.norm(chord))
+        length = float(np.hypot(chord[0], chord[1]))
         if length <= 1e-9:
             return AxisInfo(direction=None, curved=curved)
-        d = chord / length
-        return AxisInfo(
-            direction=(float(d[0]), float(d[1])), curved=curved or _turns(world)
-        )
+        d = (float(chord[0] / length), float(chord[1] / length))
+        return AxisInfo(direction=d, curved=curved or (len(pts) > 2 and _turns(world)))
     return AxisInfo(direction=None, curved=False)

@@ -1,45 +1,39 @@
 """Author the Larkspur Row demo model of shearline with ifcopenshell's authoring API.
 
-Larkspur Row is an invented three-storey light-frame wood apartment building (wood
-structural panel shear walls), made for the demo only; no real project is modelled.
+Larkspur Row is an invented three-storey light-frame wood apartment building with wood
+structural panel shear walls, made for the demo only (see README.md in this folder).
+The building itself is plain data in ``demo_plan.py``; this script turns it into IFC.
 
-Plan (global X east, Y north, metres; the origin is the south-west corner):
+* L-shaped plan: main wing 24 m x 12 m (X 0-24, Y 0-12) plus a north wing 12 m x 10 m
+  (X 12-24, Y 12-22), 408 m²; re-entrant corner at (12, 12) with projections of 50 %
+  and 45 % of the plan dimensions (ASCE 7-16 Table 12.3-1, Type 2).
+* Storeys Level 1 (0.00 m), Level 2 (3.05 m), Level 3 (6.10 m), Roof (9.15 m). Slabs
+  have their top at the storey elevation and extrude downwards: slab on grade
+  (BASESLAB, 0.15 m), floors (FLOOR, 0.30 m) voided by a 2.6 m x 5.2 m stair opening
+  (X 9.4-12.0, Y 6.4-11.6) at Levels 2 and 3, and a roof slab (0.30 m) that is a part
+  of an IfcRoof, typed by an IfcSlabType with PredefinedType ROOF.
+* Walls are IfcWall typed by IfcWallType with a material layer set centred on the Axis
+  (the centreline); each stands in its storey and rises to the underside of the slab
+  above (2.75 m). Shear types "SW-A 15/32 Str I 10d @6" and "SW-B 15/32 Str I 10d @3"
+  carry PredefinedType SHEAR on the type; partitions are "PT-1 2x4 GWB partition".
+  Windows and doors fill IfcOpeningElements that void the walls.
+* For the checks (revision 1): L2-C1 is a short SW-A corridor wall, overstressed; the
+  corridor line stands in Levels 1 and 2 only; L3-NS stands on no wall below; L1-STE is
+  one IfcWall from Level 1 to the underside of the Level 3 floor (5.80 m); 1.0 m piers
+  have h/b = 2.75; Pset_WallCommon.LoadBearing is wrong on three walls, absent on one.
+* Revision 2: L2-C1 lengthened to 7.2 m and retyped SW-B; L2-NSB and L1-NSB added under
+  L3-NS; partition L2-P3 moved 1.0 m south; window 3 of L1-S2 widened to 2.0 m.
 
-* An L: a main wing 24 m x 12 m (X 0-24, Y 0-12) and a north wing 12 m x 10 m
-  (X 12-24, Y 12-22); plan area 408 m². The re-entrant corner is at (12, 12): the main
-  wing projects 12 m past the wing (50 % of 24 m) and the wing 10 m past the main wing
-  (45 % of 22 m), both over 15 % (ASCE 7-16 Table 12.3-1, Type 2).
-* Storeys "Level 1" 0.00 m, "Level 2" 3.05 m, "Level 3" 6.10 m, "Roof" 9.15 m.
-* Slabs have their TOP at the storey elevation and extrude downwards: a 0.15 m slab on
-  grade (BASESLAB) at Level 1, 0.30 m floors (FLOOR) at Levels 2 and 3, and a 0.30 m
-  roof slab that is a part of an IfcRoof (IfcRelAggregates) in storey "Roof", typed by
-  an IfcSlabType with PredefinedType ROOF (the occurrence's own is unset).
-* A 2.6 m x 5.2 m stair opening (X 9.2-11.8, Y 6.4-11.6) voids the Level 2 and Level 3
-  floors: their design diaphragm area is 408 - 13.52 = 394.48 m².
-* Walls are IfcWall typed by IfcWallType with a material layer set; they are contained
-  in the storey they stand on and run from its elevation to the underside of the slab
-  above (2.75 m). The Axis representation is the centreline, and the layer set is
-  centred on it (OffsetFromReferenceLine = -thickness/2). Exterior wall centrelines lie
-  on the slab edge and run counter-clockwise (outside on the right, sheathing first).
-* Shear wall types "SW-A 15/32 Str I 10d @6" and "SW-B 15/32 Str I 10d @3" carry
-  PredefinedType SHEAR on the type; partitions "PT-1 2x4 GWB partition" PARTITIONING.
-  Pset_WallCommon.LoadBearing is deliberately wrong on a few walls, and missing on one.
+Placements and representation helpers take SI metres and ifcopenshell.api converts them
+to the file's unit; attributes set directly (storey Elevation, layer thicknesses, door
+sizes) are converted here. GlobalIds are uuid5 of stable element keys, property sets and
+relationships get theirs from what they relate, and time stamps are fixed, so the output
+is byte-for-byte reproducible.
 
-What the checks should find (rev 1): the short corridor wall L2-C1 (3.0 m of SW-A,
-6 in nailing) is overstressed; the corridor line C1 stands in Levels 1 and 2 only; the
-Level 3 wall L3-NS stands on no wall below; window piers of 1.0 m have h/b = 2.75; the
-re-entrant corner; the stair-tower wall L1-STE runs from Level 1 up to the underside of
-the Level 3 floor (5.80 m) as one IfcWall, which the reader must split at Level 2.
-
-Revision 2 (the architect's reply): L2-C1 lengthened to 7.2 m and retyped SW-B; walls
-L2-NSB and L1-NSB added under L3-NS; partition L2-P3 moved 1.0 m south; the east window
-of L1-S2 widened from 1.5 m to 2.0 m. Everything else keeps its GlobalId.
-
-GlobalIds are uuid5 of stable element keys, and every timestamp is fixed, so the
-outputs are byte-for-byte reproducible. Run ``python sample_models/author_demo.py`` to
-regenerate demo_building.ifc (IFC4, metres), demo_building_ft_ifc2x3.ifc (IFC2X3,
-feet, the same GlobalIds), demo_building_rev2.ifc (IFC4, metres), scenario.json and
-demo.toml in this folder (or ``--out DIR`` elsewhere).
+Run ``python sample_models/author_demo.py`` to regenerate, in this folder (or ``--out
+DIR``): demo_building.ifc (IFC4, m), demo_building_ft_ifc2x3.ifc (IFC2X3, ft, the same
+GlobalIds), demo_building_rev2.ifc (IFC4, m), scenario.json and demo.toml. Each IFC file
+is checked with ifcopenshell.validate (schema and express rules) before it is written.
 """
 
 from __future__ import annotations

@@ -23,6 +23,7 @@ __all__ = [
     "perp",
     "pier_force",
     "piers_by_id",
+    "slab_guids",
     "unique_sorted",
 ]
 
@@ -104,3 +105,18 @@ def line_guids(allocation: Allocation, line: ResistanceLine) -> tuple[IfcGuid, .
 def unique_sorted(guids: Iterable[IfcGuid]) -> tuple[IfcGuid, ...]:
     """Sorted tuple of distinct, non-empty GlobalIds."""
     return tuple(sorted({g for g in guids if g}))
+
+
+def slab_guids(
+    model: BuildingModel | None, allocation: Allocation, level: str, diaphragm: str
+) -> tuple[tuple[str, ...], str]:
+    """GlobalIds a diaphragm finding is pinned to, and a discriminator suffix.
+
+    The diaphragm's slabs when the model is given (stable across revisions), else the
+    storey with the diaphragm id in the discriminator.
+    """
+    if model is not None:
+        for d in model.diaphragms:
+            if d.id == diaphragm and d.slab_guids:
+                return d.slab_guids, ""
+    return level_guids(allocation, level, model), f"|{diaphragm}"

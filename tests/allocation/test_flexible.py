@@ -315,13 +315,13 @@ def test_symmetric_plan_gives_mirror_lines_equal_forces(plan, Fx):
 @given(plan=plans, dx=st.floats(-500.0, 500.0), dy=st.floats(-500.0, 500.0))
 def test_translation_leaves_forces_unchanged(plan, dx, dy):
     W, H, fracs, point = plan
-    walls, region, extra = _plan(W, H, fracs, point)
-    base = _run(walls, [region], extra=extra)
-    walls, region, extra = _plan(W, H, fracs, point, lambda x, y: (x + dx, y + dy))
-    moved = _run(walls, [region], extra=extra)
     for d in (X, Y):
-        a = by_offset([ln for ln in base[0] if ln.direction is d], base[2].line_forces)
-        b = by_offset([ln for ln in moved[0] if ln.direction is d], moved[2].line_forces)
+        walls, region, extra = _plan(W, H, fracs, point)
+        lines, _, base = _run(walls, [region], extra=extra, direction=d)
+        walls, region, extra = _plan(W, H, fracs, point, lambda x, y: (x + dx, y + dy))
+        moved_lines, _, moved = _run(walls, [region], extra=extra, direction=d)
+        a = by_offset([ln for ln in lines if ln.direction is d], base.line_forces)
+        b = by_offset([ln for ln in moved_lines if ln.direction is d], moved.line_forces)
         assert b == pytest.approx(a, rel=1e-6, abs=1e-6)
 
 

@@ -31,12 +31,13 @@ IN = 0.0254  # NIST SP 811 App. B, exact
 PLF = 4.4482216152605 / 0.3048  # N/m per plf, NIST SP 811 App. B, exact
 PSI = 4.4482216152605 / IN**2  # Pa per psi, NIST SP 811 App. B, exact
 
+# SDPWS 2015 Table 4.3A, blocked, vs [plf] at 6 / 4 / 3 / 2 in edge spacing:
 TABLE_4_3A = [
-    ("15/32 Sheathing", "8d common", (520, 760, 980, 1280)),  # SDPWS 2015 Table 4.3A, from memory
-    ("15/32 Sheathing", "10d common", (620, 920, 1200, 1540)),  # SDPWS 2015 Table 4.3A, from memory
-    ("15/32 Structural I", "8d common", (560, 860, 1100, 1460)),  # SDPWS 2015 Table 4.3A, from memory
-    ("15/32 Structural I", "10d common", (680, 1020, 1330, 1740)),  # SDPWS 2015 Table 4.3A, from memory
-    ("7/16 Structural I", "8d common", (510, 790, 1010, 1340)),  # SDPWS 2015 Table 4.3A, from memory
+    ("15/32 Sheathing", "8d common", (520, 760, 980, 1280)),  # from memory
+    ("15/32 Sheathing", "10d common", (620, 920, 1200, 1540)),  # from memory
+    ("15/32 Structural I", "8d common", (560, 860, 1100, 1460)),  # from memory
+    ("15/32 Structural I", "10d common", (680, 1020, 1330, 1740)),  # from memory
+    ("7/16 Structural I", "8d common", (510, 790, 1010, 1340)),  # from memory
 ]
 SPACINGS_4_3A = (6, 4, 3, 2)  # in; SDPWS 2015 Table 4.3A panel edge fastener spacing
 
@@ -48,26 +49,34 @@ ROWS_4_3A = [
 
 
 @pytest.mark.parametrize(("sheathing", "fastener", "spacing_in", "vs_plf"), ROWS_4_3A)
-def test_wood_structural_panel_nominal_unit_shear(sheathing, fastener, spacing_in, vs_plf):
+def test_wood_structural_panel_nominal_unit_shear(
+    sheathing, fastener, spacing_in, vs_plf
+):
     # SDPWS 2015 Table 4.3A, from memory; exact unit conversion (NIST SP 811)
     vs = nominal_unit_shear(sheathing, fastener, spacing_in * IN)
     assert vs == pytest.approx(vs_plf * PLF, rel=1e-12)
 
 
+HALF, FIVE_EIGHTHS = "1/2 gypsum wallboard", "5/8 gypsum wallboard"
+
+
+# SDPWS 2015 Table 4.3C, studs at 16 in o.c., vs [plf] at 7 and 4 in edge spacing:
 @pytest.mark.parametrize(
     ("sheathing", "fastener", "blocked", "spacing_in", "vs_plf"),
     [
-        ("1/2 gypsum wallboard", "5d cooler", False, 7, 200),  # SDPWS 2015 Table 4.3C, from memory
-        ("1/2 gypsum wallboard", "5d cooler", False, 4, 250),  # SDPWS 2015 Table 4.3C, from memory
-        ("1/2 gypsum wallboard", "5d cooler", True, 7, 250),  # SDPWS 2015 Table 4.3C, from memory
-        ("1/2 gypsum wallboard", "5d cooler", True, 4, 300),  # SDPWS 2015 Table 4.3C, from memory
-        ("5/8 gypsum wallboard", "6d cooler", False, 7, 230),  # SDPWS 2015 Table 4.3C, from memory
-        ("5/8 gypsum wallboard", "6d cooler", False, 4, 290),  # SDPWS 2015 Table 4.3C, from memory
-        ("5/8 gypsum wallboard", "6d cooler", True, 7, 290),  # SDPWS 2015 Table 4.3C, from memory
-        ("5/8 gypsum wallboard", "6d cooler", True, 4, 350),  # SDPWS 2015 Table 4.3C, from memory
+        (HALF, "5d cooler", False, 7, 200),  # Table 4.3C, from memory
+        (HALF, "5d cooler", False, 4, 250),  # Table 4.3C, from memory
+        (HALF, "5d cooler", True, 7, 250),  # Table 4.3C, from memory
+        (HALF, "5d cooler", True, 4, 300),  # Table 4.3C, from memory
+        (FIVE_EIGHTHS, "6d cooler", False, 7, 230),  # Table 4.3C, from memory
+        (FIVE_EIGHTHS, "6d cooler", False, 4, 290),  # Table 4.3C, from memory
+        (FIVE_EIGHTHS, "6d cooler", True, 7, 290),  # Table 4.3C, from memory
+        (FIVE_EIGHTHS, "6d cooler", True, 4, 350),  # Table 4.3C, from memory
     ],
 )
-def test_gypsum_board_nominal_unit_shear(sheathing, fastener, blocked, spacing_in, vs_plf):
+def test_gypsum_board_nominal_unit_shear(
+    sheathing, fastener, blocked, spacing_in, vs_plf
+):
     entry = find_entry(sheathing, fastener, spacing_in * IN, blocked=blocked)
     assert entry.kind is AssemblyKind.GYPSUM
     assert entry.nominal_unit_shear == pytest.approx(vs_plf * PLF, rel=1e-12)
@@ -75,10 +84,16 @@ def test_gypsum_board_nominal_unit_shear(sheathing, fastener, blocked, spacing_i
 
 @pytest.mark.parametrize(
     ("spacing_in", "vw_plf"),
-    [(6, 730), (4, 1065), (3, 1370), (2, 1790)],  # SDPWS 2015 Table 4.3A wind column, from memory
+    [
+        (6, 730),
+        (4, 1065),
+        (3, 1370),
+        (2, 1790),
+    ],  # SDPWS 2015 Table 4.3A wind column, from memory
 )
 def test_seismic_column_is_wind_column_over_1_4(spacing_in, vw_plf):
-    # SDPWS format (Line & Russell, Wood Design Focus): vs = vw / 1.4; table rounds to 5 plf
+    # SDPWS format (Line & Russell, Wood Design Focus): vs = vw / 1.4; the table rounds
+    # to 5 plf
     vs = nominal_unit_shear("15/32 Sheathing", "8d common", spacing_in * IN) / PLF
     assert vs == pytest.approx(vw_plf / 1.4, abs=5.0)
 
@@ -103,12 +118,16 @@ def test_every_library_value_is_marked_from_memory():
 )
 def test_names_match_case_and_inch_mark_insensitively(sheathing, fastener):
     vs = nominal_unit_shear(sheathing, fastener, 6 * IN)
-    assert vs == pytest.approx(680 * PLF, rel=1e-12)  # SDPWS 2015 Table 4.3A, from memory
+    assert vs == pytest.approx(
+        680 * PLF, rel=1e-12
+    )  # SDPWS 2015 Table 4.3A, from memory
 
 
 def test_spacing_matches_within_a_millimetre():
     vs = nominal_unit_shear("15/32 Structural I", "10d common", 0.152)  # 152 mm ~ 6 in
-    assert vs == pytest.approx(680 * PLF, rel=1e-12)  # SDPWS 2015 Table 4.3A, from memory
+    assert vs == pytest.approx(
+        680 * PLF, rel=1e-12
+    )  # SDPWS 2015 Table 4.3A, from memory
 
 
 def test_unknown_combination_lists_what_exists():

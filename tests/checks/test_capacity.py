@@ -106,7 +106,9 @@ def test_si_form_of_alpha_c_agrees_with_psi_form():
 )
 def test_concrete_wall_unit_capacity(basis, expected_plf):
     a = assembly(kind=AssemblyKind.CONCRETE, concrete=concrete())
-    got = wall_unit_capacity(a, length=10 * FT, height=10 * FT, thickness=8 * IN, basis=basis)
+    got = wall_unit_capacity(
+        a, length=10 * FT, height=10 * FT, thickness=8 * IN, basis=basis
+    )
     assert got == pytest.approx(expected_plf * PLF, rel=1e-9)
 
 
@@ -145,7 +147,9 @@ def test_user_capacity_wins_for_concrete():
         unit_shear_capacity=5000 * PLF,
         capacity_source="user",
     )
-    got = wall_unit_capacity(a, length=3, height=3, thickness=0.2, basis=DesignBasis.ASD)
+    got = wall_unit_capacity(
+        a, length=3, height=3, thickness=0.2, basis=DesignBasis.ASD
+    )
     assert got == pytest.approx(5000 * PLF)
 
 
@@ -179,13 +183,19 @@ def test_concrete_capacity_properties(fc, rho, hw_lw, scale, t):
     base = concrete(fc_psi=fc, rho_t=rho)
     v = concrete_nominal_shear_stress(base, hw_lw)
     # ACI 318-19 §18.10.4.1: more steel, stronger concrete, squatter wall -> not weaker
-    assert concrete_nominal_shear_stress(concrete(fc_psi=fc, rho_t=rho * 1.1), hw_lw) >= v
-    assert concrete_nominal_shear_stress(concrete(fc_psi=fc * 1.1, rho_t=rho), hw_lw) >= v
+    assert (
+        concrete_nominal_shear_stress(concrete(fc_psi=fc, rho_t=rho * 1.1), hw_lw) >= v
+    )
+    assert (
+        concrete_nominal_shear_stress(concrete(fc_psi=fc * 1.1, rho_t=rho), hw_lw) >= v
+    )
     assert concrete_nominal_shear_stress(base, hw_lw * 0.9) >= v
     assert v <= 10 * math.sqrt(fc) * PSI * (1 + 1e-12)  # ACI 318-19 §18.10.4.4 cap
     # per unit length the capacity depends on thickness and hw/lw only (Acv = lw t)
     a = assembly(kind=AssemblyKind.CONCRETE, concrete=base)
-    one = wall_unit_capacity(a, length=3.0, height=3.0 * hw_lw, thickness=t, basis="LRFD")
+    one = wall_unit_capacity(
+        a, length=3.0, height=3.0 * hw_lw, thickness=t, basis="LRFD"
+    )
     scaled = wall_unit_capacity(
         a, length=3.0 * scale, height=3.0 * scale * hw_lw, thickness=t, basis="LRFD"
     )

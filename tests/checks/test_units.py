@@ -56,12 +56,18 @@ WHERE = "demo.toml: assemblies[0].unit_shear_capacity"
     ],
 )
 def test_parse_quantity_converts_to_si(text, units, expected):
-    assert parse_quantity(text, units, where=WHERE) == pytest.approx(expected, rel=1e-12)
+    assert parse_quantity(text, units, where=WHERE) == pytest.approx(
+        expected, rel=1e-12
+    )
 
 
 def test_kip_and_ksi_are_pint_builtins_with_their_definitions():
-    assert Q_(1, "kip").m_as("lbf") == pytest.approx(1000.0, rel=1e-15)  # kip = 1000 lbf
-    assert Q_(1, "ksi").m_as("psi") == pytest.approx(1000.0, rel=1e-15)  # ksi = 1000 psi
+    assert Q_(1, "kip").m_as("lbf") == pytest.approx(
+        1000.0, rel=1e-15
+    )  # kip = 1000 lbf
+    assert Q_(1, "ksi").m_as("psi") == pytest.approx(
+        1000.0, rel=1e-15
+    )  # ksi = 1000 psi
     assert Q_(1, "plf").m_as("N/m") == pytest.approx(LBF / FT, rel=1e-15)  # NIST SP 811
 
 
@@ -81,7 +87,11 @@ def test_one_registry_for_the_project():  # pint docs: one registry per package
             "that is a pressure, expected a force per length such as '260 plf' or "
             "'3.8 kN/m'",
         ),
-        ("10 lb", "N", "a mass, expected a force such as '10 kip' or '45 kN' (write 'lbf'"),
+        (
+            "10 lb",
+            "N",
+            "a mass, expected a force such as '10 kip' or '45 kN' (write 'lbf'",
+        ),
         ("5 m", "rad", "that is a length, expected an angle"),
         ("10 %", "rad", "a plain ratio, expected an angle"),
         ("nan psf", "Pa", "not a finite number"),

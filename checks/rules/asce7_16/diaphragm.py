@@ -40,6 +40,7 @@ from checks.rules._support import (
     level_load,
     line_guids,
     perp,
+    slab_guids,
 )
 from checks.rules.asce7_16.load_combinations import seismic_factor
 from checks.rules.asce7_16.seismic_design_category import seismic_design_category
@@ -52,7 +53,6 @@ __all__ = [
     "LineShear",
     "check_diaphragm",
     "diaphragm_demands",
-    "slab_guids",
 ]
 
 RULE = "diaphragm"
@@ -269,21 +269,6 @@ def diaphragm_demands(
     return DiaphragmDemands(
         shears=tuple(shears), chords=tuple(chords), collectors=tuple(collectors)
     )
-
-
-def slab_guids(
-    model: BuildingModel | None, allocation: Allocation, level: str, diaphragm: str
-) -> tuple[tuple[str, ...], str]:
-    """GlobalIds a diaphragm finding is pinned to, and a discriminator suffix.
-
-    The diaphragm's slabs when the model is given (stable across revisions), else the
-    storey with the diaphragm id in the discriminator.
-    """
-    if model is not None:
-        for d in model.diaphragms:
-            if d.id == diaphragm and d.slab_guids:
-                return d.slab_guids, ""
-    return level_guids(allocation, level, model), f"|{diaphragm}"
 
 
 def _governing(records, value) -> dict[tuple, object]:

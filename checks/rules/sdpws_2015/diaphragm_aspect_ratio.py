@@ -11,11 +11,10 @@ from __future__ import annotations
 from allocation.results import Allocation
 from checks.findings import Finding, Severity
 from checks.project import ProjectConfig
-from checks.rules._support import fmt, unique_sorted
+from checks.rules._support import fmt, slab_guids, unique_sorted
 from checks.rules.asce7_16.diaphragm import (
     DiaphragmDemands,
     diaphragm_demands,
-    slab_guids,
 )
 from ifc_bridge.model import BuildingModel
 
