@@ -18,9 +18,9 @@ from collections.abc import Sequence
 from dataclasses import dataclass
 from itertools import pairwise
 
+import shapely
 from shapely.geometry import MultiLineString, Polygon
 from shapely.geometry.base import BaseGeometry
-import shapely
 from shapely.ops import split
 
 from ifc_bridge.model import Direction

@@ -9,6 +9,7 @@ and goes straight to a line when the wall is in that line or lies on its chord.
 from __future__ import annotations
 
 import logging
+import math
 from collections.abc import Sequence
 from dataclasses import dataclass
 
@@ -33,6 +34,7 @@ __all__ = [
 logger = logging.getLogger(__name__)
 
 ON_LINE = 1e-6  # [m] a mass or point load this close to a chord is on the line
+_COVER_TOL = 1e-7  # [m] a mass polygon this close around a piece covers it
 
 
 @dataclass(slots=True, kw_only=True)
@@ -59,6 +61,17 @@ def make_slots(
     direction: Direction,
     tol: float,
 ) -> list[Slot]:
+    """Split every region by its lines' chords into pieces, ids ``<region>/<X|Y><n>``.
+
+    Args:
+        regions: Diaphragm regions of the level.
+        lines: Lines of the level acting in ``direction``.
+        direction: Direction of force.
+        tol: Line tolerance [m], for lines just off a slab edge.
+
+    Returns:
+        Empty accumulators, one per piece, in region then piece order.
+    """
     slots = []
     for region in regions:
         supports = []
@@ -79,28 +92,33 @@ def make_slots(
     return slots
 
 
-def mass_items(level: LevelLoad, regions: Sequence[Diaphragm]) -> tuple[MassItem, ...]:
-    if level.masses:
-        return level.masses
-    logger.info(
-        "level %s: no located masses; weight spread over the diaphragm", level.level
-    )
-    if not regions:
-        return ()
+def mass_items(
+    level: LevelLoad, regions: Sequence[Diaphragm]
+) -> tuple[tuple[MassItem, ...], bool]:
+    """The level's located masses, else its weight spread uniformly over the regions.
+
+    Returns:
+        The items, and False when they are plan areas [m²] standing in for a weight
+        that is zero (a given story force on a weightless level: spread by area).
+    """
+    if math.fsum(m.weight for m in level.masses) > 0.0 or not regions:
+        return level.masses, True
     union = unary_union([r.polygon for r in regions])
+    physical = level.seismic_weight > 0.0
+    logger.info("level %s: no located masses; spread over the diaphragm", level.level)
     c = union.centroid
-    return (
-        MassItem(
-            source="slab",
-            ref=level.level,
-            weight=level.seismic_weight,
-            location=(c.x, c.y),
-            polygon=union,
-        ),
+    item = MassItem(
+        source="slab",
+        ref=level.level,
+        weight=level.seismic_weight if physical else float(union.area),
+        location=(c.x, c.y),
+        polygon=union,
     )
+    return (item,), physical
 
 
 def on_line(u: float, v: float, slots: Sequence[Slot]) -> LineId | None:
+    """The line whose chord passes through the local point (within ``ON_LINE``)."""
     for slot in slots:
         for s in slot.piece.supports:
             if abs(v - s.v) <= ON_LINE and any(
@@ -123,7 +141,32 @@ def host(u: float, v: float, slots: Sequence[Slot]) -> tuple[Slot, float, float]
 
 
 def local_uv(point: tuple[float, float], direction: Direction) -> tuple[float, float]:
+    """Plan point in the local frame: (along, across) the lines [m]."""
     return along(point, direction), perpendicular(point, direction)
+
+
+def _spread(
+    polygon: Polygon, slots: Sequence[Slot], direction: Direction
+) -> list[tuple[Slot, float, tuple[float, float]]]:
+    """(piece, area of the polygon in it [m²], local centroid) for each piece.
+
+    A piece the polygon covers (the usual slab item) is taken whole, which avoids
+    GEOS round-off on edges shared by the piece and the slab outline.
+    """
+    grown = polygon.buffer(_COVER_TOL)
+    out = []
+    for slot in slots:
+        if not grown.intersects(slot.plan):
+            continue
+        part = slot.plan if grown.covers(slot.plan) else polygon.intersection(slot.plan)
+        if part.area > 0.0:
+            c = (
+                slot.piece.local.centroid
+                if part is slot.plan
+                else to_local(part, direction).centroid
+            )
+            out.append((slot, float(part.area), (float(c.x), float(c.y))))
+    return out
 
 
 def load_masses(
@@ -132,20 +175,25 @@ def load_masses(
     wall_lines: dict[tuple[str, int], LineId],
     direction: Direction,
 ) -> tuple[dict[LineId, float], float]:
-    """Spread mass items onto pieces; return weight sent straight to lines, and lost."""
+    """Spread mass items onto the pieces (uniform over polygons; points at location).
+
+    A distributed item is shared by the area of its polygon in each piece
+    (normalised by their sum, so no weight is lost where it overhangs the regions);
+    a point item of a wall in a line of this direction (``wall_lines``) or on a
+    chord goes straight to that line; a point off
+    every piece goes to the nearest piece, at the nearest point of it.
+
+    Returns:
+        Weight sent straight to each line [N], and weight with no region at all [N].
+    """
     direct: dict[LineId, float] = {}
     lost = 0.0
-    union = unary_union([s.region.polygon for s in slots]) if slots else None
     for item in items:
-        base = 0.0
-        if item.polygon is not None and union is not None:
-            base = item.polygon.intersection(union).area
+        parts = [] if item.polygon is None else _spread(item.polygon, slots, direction)
+        base = math.fsum(area for _, area, _ in parts)
         if base > 0.0:
-            for slot in slots:
-                part = slot.plan.intersection(item.polygon)
-                if part.area > 0.0:
-                    c = to_local(part, direction).centroid
-                    slot.add(item.weight * part.area / base, c.x, c.y)
+            for slot, area, (u, v) in parts:
+                slot.add(item.weight * area / base, u, v)
             continue
         u, v = local_uv(item.location, direction)
         line = (

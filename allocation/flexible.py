@@ -18,6 +18,7 @@ does not stand on a line below enters as a point load and is split the same way.
 
 from __future__ import annotations
 
+import dataclasses
 import logging
 import math
 from collections.abc import Sequence
@@ -292,7 +293,8 @@ def allocate_flexible(
 
     Args:
         level: Loads of the level: ``story_force`` Fx [N] and located ``masses``
-            (weights [N]); without masses, ``seismic_weight`` is spread uniformly.
+            (weights [N]); without masses, ``seismic_weight`` is spread uniformly
+            over the diaphragm (by area when it is 0 and Fx is given).
         diaphragms: Diaphragm regions (those of this level are used).
         lines: Lines of resistance (those of this level and direction are used).
         piers: Piers with ``line`` set (those of the lines are used).
@@ -306,8 +308,8 @@ def allocate_flexible(
         (cantilevered and unsupported pieces; unsupported force is not allocated).
 
     Raises:
-        AllocationError: Fx is not 0 but the level has no weight; a point load for
-            another level or direction; a line whose piers are not given.
+        AllocationError: A point load for another level or direction, preset point
+            load shares that do not fit, or a line whose piers are not given.
     """
     tol = AnalysisOptions().line_tolerance if line_tolerance is None else line_tolerance
     name = level.level
@@ -322,11 +324,8 @@ def allocate_flexible(
             )
             raise AllocationError(msg)
     slots = make_slots(regions, mine, direction, tol)
-    items = mass_items(level, regions)
+    items, physical = mass_items(level, regions)
     W, Fx = math.fsum(i.weight for i in items), float(level.story_force)
-    if W <= 0.0 and Fx != 0.0:
-        msg = f"level {name!r}: story force {Fx} N but no seismic weight to carry it"
-        raise AllocationError(msg)
     scale = Fx / W if W > 0.0 else 0.0
     walls = {
         (p.guid, p.part): p.line for p in piers if p.line in ids and p.level == name
@@ -339,6 +338,8 @@ def allocate_flexible(
     pieces, conditions = [], []
     for slot in slots:
         piece, cond = _finish_piece(slot, scale, name, direction, guids)
+        if not physical:  # weights were plan areas
+            piece = dataclasses.replace(piece, weight=0.0)
         pieces.append(piece)
         conditions.extend(cond)
         for lid, f in piece.shares:
@@ -350,8 +351,13 @@ def allocate_flexible(
         conditions.extend(cond)
         for lid, f in done.shares:
             line_forces[lid] += f
+    if W <= 0.0 and Fx != 0.0:
+        lost, scale = 1.0, Fx  # all of Fx
     if lost > 0.0:
-        detail = f"level {name!r} has no diaphragm region for {lost:.0f} N of weight"
+        detail = (
+            f"level {name!r}: {scale * lost:.0f} N of its story force has no "
+            "diaphragm region to carry it"
+        )
         conditions.append(
             _cond(
                 ConditionKind.UNSUPPORTED_PIECE,

@@ -91,15 +91,18 @@ EPOCH = 1714986000  # the same instant, for IfcOwnerHistory (IFC2X3 only)
 
 @dataclass
 class _Ctx:
+    """The file being written and what later steps look up in it."""
+
     f: ifcopenshell.file
     scale: float  # file length unit [m]
-    body: ifcopenshell.entity_instance = None
-    axis: ifcopenshell.entity_instance = None
+    body: ifcopenshell.entity_instance | None = None  # Model/Body/MODEL_VIEW context
+    axis: ifcopenshell.entity_instance | None = None  # Model/Axis/GRAPH_VIEW context
     storeys: dict = field(default_factory=dict)
     types: dict = field(default_factory=dict)
     materials: dict = field(default_factory=dict)
 
     def new(self, ifc_class: str, key: str, name: str | None = None, **kw):
+        """Create an IfcRoot entity with the GlobalId of ``key``."""
         ent = ifcopenshell.api.root.create_entity(
             self.f, ifc_class=ifc_class, name=name, **kw
         )
@@ -107,6 +110,7 @@ class _Ctx:
         return ent
 
     def u(self, metres: float) -> float:
+        """A length in the file's unit, from metres."""
         return metres / self.scale
 
     @property
@@ -136,12 +140,9 @@ def _new_file(schema: str, length_unit: str) -> _Ctx:
         app = ifcopenshell.api.owner.add_application(f)
         app.Version, app.ApplicationIdentifier = "1", "shearline-author-demo"
         app.ApplicationFullName = "shearline sample_models/author_demo.py"
-        dev = app.ApplicationDeveloper  # keep the header free of library versions
-        dev[0], dev.Name, dev.Description = (
-            "shearline",
-            "shearline",
-            None,
-        )  # Id(entification)
+        dev = app.ApplicationDeveloper  # keep library versions out of the file
+        dev[0] = "shearline"  # Id in IFC2X3, Identification in IFC4
+        dev.Name, dev.Description = "shearline", None
         for address in dev.Addresses or ():
             f.remove(address)
         person = ifcopenshell.api.owner.add_person(
@@ -222,9 +223,7 @@ def _wall_types(ctx: _Ctx) -> None:
     f = ctx.f
     for t in WALL_TYPES.values():
         predefined = t.predefined_type
-        if (
-            not ctx.ifc4 and predefined == "PARTITIONING"
-        ):  # not in the IFC2X3 enumeration
+        if not ctx.ifc4 and predefined == "PARTITIONING":  # not in IFC2X3's enum
             predefined = "USERDEFINED"
         wt = ctx.new(
             "IfcWallType", f"walltype/{t.key}", t.name, predefined_type=predefined
@@ -430,12 +429,14 @@ def _ref(value) -> str:
 
 
 def _rel_keys(f: ifcopenshell.file, rels) -> dict[int, str]:
+    """Key of each relationship: its class and relating object, plus the related
+    objects where that alone is not unique (or the relating object has no GlobalId)."""
     short, full = {}, {}
     for rel in rels:
         info = rel.get_info(recursive=False, include_identifier=False)
         relating = [k for k in info if k.startswith("Relating")]
         short[rel.id()] = rel.is_a() + "|" + "|".join(_ref(info[k]) for k in relating)
-        parts = [_ref(v) for k, v in info.items() if k.startswith(("Relat", "Related"))]
+        parts = [_ref(v) for k, v in info.items() if k.startswith("Relat")]
         full[rel.id()] = rel.is_a() + "|" + "|".join(parts)
     counts: dict[str, int] = {}
     for key in short.values():

@@ -271,21 +271,38 @@ def _r(v: float) -> float:
 def _wall_record(w: Wall) -> dict:
     wt, (base, top) = WALL_TYPES[w.wall_type], wall_base_top(w)
     holes = [
-        {"guid": stable_guid(f"opening/{w.tag}/{h.n}"), "kind": h.kind,
-         "filled_by": stable_guid(f"{h.kind}/{w.tag}/{h.n}"), "start": _r(h.start),
-         "end": _r(h.end), "sill": h.sill, "head": h.head}
+        {
+            "guid": stable_guid(f"opening/{w.tag}/{h.n}"),
+            "kind": h.kind,
+            "filled_by": stable_guid(f"{h.kind}/{w.tag}/{h.n}"),
+            "start": _r(h.start),
+            "end": _r(h.end),
+            "sill": h.sill,
+            "head": h.head,
+        }
         for h in w.openings
-    ]  # fmt: skip
+    ]
     spans = [s.name for s in STOREYS[storey_index(w.storey) :][: w.spans]]
     return {
-        "guid": w.guid, "name": w.tag, "storey": w.storey, "spans_storeys": spans,
-        "role": w.role, "type_name": wt.name, "predefined_type": wt.predefined_type,
-        "shear": wt.shear, "start": [float(v) for v in w.start],
+        "guid": w.guid,
+        "name": w.tag,
+        "storey": w.storey,
+        "spans_storeys": spans,
+        "role": w.role,
+        "type_name": wt.name,
+        "predefined_type": wt.predefined_type,
+        "shear": wt.shear,
+        "start": [float(v) for v in w.start],
         "end": [float(v) for v in w.end],
-        "length": _r(w.length), "thickness": _r(wt.thickness), "base": base, "top": top,
-        "load_bearing": w.load_bearing, "external": w.external,
-        "piers": [[_r(a), _r(b)] for a, b in piers(w)], "openings": holes,
-    }  # fmt: skip
+        "length": _r(w.length),
+        "thickness": _r(wt.thickness),
+        "base": base,
+        "top": top,
+        "load_bearing": w.load_bearing,
+        "external": w.external,
+        "piers": [[_r(a), _r(b)] for a, b in piers(w)],
+        "openings": holes,
+    }
 
 
 def _storey_records(walls: tuple[Wall, ...]) -> list[dict]:
@@ -296,17 +313,24 @@ def _storey_records(walls: tuple[Wall, ...]) -> list[dict]:
         first = storey_index
         on = [w for w in walls if first(w.storey) <= i < first(w.storey) + w.spans]
         void = _r((x1 - x0) * (y1 - y0)) if s.name in STAIR_STOREYS else 0.0
-        out.append({
-            "name": s.name, "guid": stable_guid(f"storey/{s.name}"),
-            "elevation": s.elevation, "slab_guid": stable_guid(f"slab/{s.name}"),
-            "slab_kind": s.slab, "slab_top": s.elevation, "slab_depth": s.depth,
-            "slab_outline_area": polygon_area(OUTLINE), "opening_area": void,
-            "diaphragm_area": _r(polygon_area(OUTLINE) - void),
-            "ifc_walls": len(own),
-            "shear_walls": sum(WALL_TYPES[w.wall_type].shear for w in own),
-            "wall_segments": len(on),
-            "shear_wall_segments": sum(WALL_TYPES[w.wall_type].shear for w in on),
-        })  # fmt: skip
+        out.append(
+            {
+                "name": s.name,
+                "guid": stable_guid(f"storey/{s.name}"),
+                "elevation": s.elevation,
+                "slab_guid": stable_guid(f"slab/{s.name}"),
+                "slab_kind": s.slab,
+                "slab_top": s.elevation,
+                "slab_depth": s.depth,
+                "slab_outline_area": polygon_area(OUTLINE),
+                "opening_area": void,
+                "diaphragm_area": _r(polygon_area(OUTLINE) - void),
+                "ifc_walls": len(own),
+                "shear_walls": sum(WALL_TYPES[w.wall_type].shear for w in own),
+                "wall_segments": len(on),
+                "shear_wall_segments": sum(WALL_TYPES[w.wall_type].shear for w in on),
+            }
+        )
     return out
 
 
@@ -316,9 +340,16 @@ def _slender_piers(walls: tuple[Wall, ...]) -> list[dict]:
         base, top = wall_base_top(w)
         for a, b in piers(w):
             if WALL_TYPES[w.wall_type].shear and (top - base) / (b - a) > 2.0:
-                out.append({"guid": w.guid, "name": w.tag, "pier": [_r(a), _r(b)],
-                            "width": _r(b - a), "height": _r(top - base),
-                            "h_over_b": _r((top - base) / (b - a))})  # fmt: skip
+                out.append(
+                    {
+                        "guid": w.guid,
+                        "name": w.tag,
+                        "pier": [_r(a), _r(b)],
+                        "width": _r(b - a),
+                        "height": _r(top - base),
+                        "h_over_b": _r((top - base) / (b - a)),
+                    }
+                )
     return out
 
 
@@ -334,9 +365,14 @@ def _special(walls: tuple[Wall, ...], revision: int) -> dict:
         "high_aspect_ratio_piers": _slender_piers(walls),
         "load_bearing_wrong": sorted(g[t] for t, v in wrong if v is not None),
         "pset_wall_common_missing": sorted(g[t] for t, v in wrong if v is None),
-        "reentrant_corner": {"corner": [12.0, 12.0], "projection_x": 12.0,
-                             "plan_x": 24.0, "projection_y": 10.0, "plan_y": 22.0},
-    }  # fmt: skip
+        "reentrant_corner": {
+            "corner": [12.0, 12.0],
+            "projection_x": 12.0,
+            "plan_x": 24.0,
+            "projection_y": 10.0,
+            "plan_y": 22.0,
+        },
+    }
 
 
 def scenario() -> dict:
@@ -351,10 +387,14 @@ def scenario() -> dict:
             "walls": [_wall_record(w) for w in walls],
         }
     files = {
-        name: {"revision": rev, "schema": schema, "length_unit": unit,
-               "length_unit_scale": FOOT if unit == "ft" else 1.0}
+        name: {
+            "revision": rev,
+            "schema": schema,
+            "length_unit": unit,
+            "length_unit_scale": FOOT if unit == "ft" else 1.0,
+        }
         for name, (rev, schema, unit) in FILES.items()
-    }  # fmt: skip
+    }
     return {
         "schema": "shearline.demo-scenario/1",
         "units": {"length": "m", "area": "m2"},

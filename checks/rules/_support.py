@@ -29,8 +29,7 @@ __all__ = [
 
 
 def perp(direction: Direction) -> int:
-    """Index (0 = x, 1 = y) of the coordinate perpendicular to a line acting in "
-    "``direction``."""
+    """Index (0 = x, 1 = y) of the offset of a line acting in ``direction``."""
     return 1 if direction is Direction.X else 0
 
 

@@ -26,8 +26,9 @@ from ifc_bridge.model import (
 OPTIONS = AnalysisOptions()
 
 
-def opening(guid: str, start: float, end: float, *, bottom: float = 0.0,
-            top: float = 2.1) -> Opening:
+def opening(
+    guid: str, start: float, end: float, *, bottom: float = 0.0, top: float = 2.1
+) -> Opening:
     """An opening from ``start`` to ``end`` along the wall [m]."""
     return Opening(guid=guid, start=start, end=end, bottom=bottom, top=top)
 
@@ -48,25 +49,47 @@ def segment(
 ) -> WallSegment:
     """A wall segment 0.2 m thick standing on ``storey``, supporting ``level``."""
     return WallSegment(
-        guid=guid, name=f"wall {guid}", storey=storey, level=level, part=part,
-        base_elevation=base, top_elevation=base + height, start=start, end=end,
-        thickness=0.2, openings=tuple(openings), is_shear_wall=shear,
+        guid=guid,
+        name=f"wall {guid}",
+        storey=storey,
+        level=level,
+        part=part,
+        base_elevation=base,
+        top_elevation=base + height,
+        start=start,
+        end=end,
+        thickness=0.2,
+        openings=tuple(openings),
+        is_shear_wall=shear,
         assembly=assembly if shear else "",
     )
 
 
 def building(walls: Sequence[WallSegment], diaphragms: Sequence[Diaphragm] = ()):
     """A two-level model (L0 at 0 m, L1 at 3 m) holding the walls and diaphragms."""
-    levels = (Level(name="L0", guid="G-L0", elevation=0.0, index=0),
-              Level(name="L1", guid="G-L1", elevation=3.0, index=1))
-    return BuildingModel(source="plans.ifc", schema="IFC4", levels=levels,
-                         diaphragms=tuple(diaphragms), walls=tuple(walls))
+    levels = (
+        Level(name="L0", guid="G-L0", elevation=0.0, index=0),
+        Level(name="L1", guid="G-L1", elevation=3.0, index=1),
+    )
+    return BuildingModel(
+        source="plans.ifc",
+        schema="IFC4",
+        levels=levels,
+        diaphragms=tuple(diaphragms),
+        walls=tuple(walls),
+    )
 
 
 def diaphragm(polygon: Polygon, *, level: str = "L1", n: int = 1) -> Diaphragm:
     """Diaphragm ``<level>/D<n>`` made of slab ``S-<level>-<n>``."""
-    return Diaphragm(id=f"{level}/D{n}", level=level, polygon=polygon,
-                     slab_guids=(f"S-{level}-{n}",), kind="FLOOR", elevation=3.0)
+    return Diaphragm(
+        id=f"{level}/D{n}",
+        level=level,
+        polygon=polygon,
+        slab_guids=(f"S-{level}-{n}",),
+        kind="FLOOR",
+        elevation=3.0,
+    )
 
 
 def x_wall(guid: str, y: float, x0: float, x1: float, **kw) -> WallSegment:
@@ -90,11 +113,26 @@ def pier(
     line: str = "",
 ) -> Pier:
     """A pier from ``start`` to ``end``; direction from its axis (X or Y only)."""
-    direction = Direction.X if abs(end[1] - start[1]) < abs(end[0] - start[0]) else Direction.Y
-    return Pier(id=f"{guid}|{level}|0|0", guid=guid, name=guid, pier=0, part=0,
-                level=level, storey="L0", direction=direction, start=start, end=end,
-                height=3.0, thickness=0.2, assembly=assembly, stiffness=stiffness,
-                line=line)
+    direction = (
+        Direction.X if abs(end[1] - start[1]) < abs(end[0] - start[0]) else Direction.Y
+    )
+    return Pier(
+        id=f"{guid}|{level}|0|0",
+        guid=guid,
+        name=guid,
+        pier=0,
+        part=0,
+        level=level,
+        storey="L0",
+        direction=direction,
+        start=start,
+        end=end,
+        height=3.0,
+        thickness=0.2,
+        assembly=assembly,
+        stiffness=stiffness,
+        line=line,
+    )
 
 
 def lines_of(
@@ -106,8 +144,9 @@ def lines_of(
 ) -> tuple[tuple[ResistanceLine, ...], tuple[Pier, ...]]:
     """Piers and lines of one level, through make_piers and find_lines."""
     piers, _ = make_piers(walls, OPTIONS)
-    lines, piers, _ = find_lines(piers, regions, level=level,
-                                 level_index=level_index, options=OPTIONS)
+    lines, piers, _ = find_lines(
+        piers, regions, level=level, level_index=level_index, options=OPTIONS
+    )
     return lines, piers
 
 
@@ -121,18 +160,31 @@ def slab_load(
 ) -> LevelLoad:
     """A level whose weight is ``unit_weight`` [Pa] over each region, plus ``extra``."""
     masses = tuple(
-        MassItem(source="slab", ref=d.id, weight=unit_weight * d.area,
-                 location=(d.polygon.centroid.x, d.polygon.centroid.y),
-                 polygon=d.polygon)
+        MassItem(
+            source="slab",
+            ref=d.id,
+            weight=unit_weight * d.area,
+            location=(d.polygon.centroid.x, d.polygon.centroid.y),
+            polygon=d.polygon,
+        )
         for d in regions
     ) + tuple(extra)
     W = sum(m.weight for m in masses)
-    return LevelLoad(level=level, guid=f"G-{level}", elevation=3.0, height=3.0,
-                     seismic_weight=W, breakdown=(), story_force=Fx, masses=masses)
+    return LevelLoad(
+        level=level,
+        guid=f"G-{level}",
+        elevation=3.0,
+        height=3.0,
+        seismic_weight=W,
+        breakdown=(),
+        story_force=Fx,
+        masses=masses,
+    )
 
 
-def wall_mass(guid: str, weight: float, at: tuple[float, float], *,
-              part: int = 0) -> MassItem:
+def wall_mass(
+    guid: str, weight: float, at: tuple[float, float], *, part: int = 0
+) -> MassItem:
     """A wall's tributary weight [N] as a point at ``at``."""
     return MassItem(source="wall", ref=guid, weight=weight, location=at, pier_part=part)
 

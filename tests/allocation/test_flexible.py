@@ -10,6 +10,7 @@ rectangular plans; the tolerance covers nothing but round-off).
 
 from __future__ import annotations
 
+import itertools
 import math
 
 import pytest
@@ -18,7 +19,6 @@ from hypothesis import strategies as st
 from shapely.affinity import affine_transform
 from shapely.geometry import Polygon, box
 
-from allocation.errors import AllocationError
 from allocation.flexible import allocate_flexible, lever_rule, transfer_point_loads
 from allocation.results import ConditionKind, MassItem
 from ifc_bridge.model import Direction
@@ -43,6 +43,7 @@ def _strip_reference(rects, masses, supports, *, direction, per_m=100):
     area) items; supports: {offset: (a, b)} = a line at that perpendicular offset
     supporting the plan for along-coordinates a..b.
     """
+
     def uv(r):
         x0, y0, x1, y1 = r
         return (x0, x1, y0, y1) if direction is X else (y0, y1, x0, x1)
@@ -62,10 +63,13 @@ def _strip_reference(rects, masses, supports, *, direction, per_m=100):
             else:
                 merged.append([a, b])
         for a, b in merged:
-            cuts = sorted(v for v, (s0, s1) in supports.items()
-                          if s0 <= u <= s1 and a - 1e-9 <= v <= b + 1e-9)
+            cuts = sorted(
+                v
+                for v, (s0, s1) in supports.items()
+                if s0 <= u <= s1 and a - 1e-9 <= v <= b + 1e-9
+            )
             ends = sorted({a, b, *cuts})
-            for s0, s1 in zip(ends, ends[1:], strict=False):
+            for s0, s1 in itertools.pairwise(ends):
                 m = mv = 0.0
                 for (u0, u1, v0, v1), q in loads:
                     lo, hi = max(s0, v0), min(s1, v1)
@@ -89,30 +93,43 @@ def _strip_reference(rects, masses, supports, *, direction, per_m=100):
 def _run(walls, regions, *, Fx=1000.0, direction=X, extra=(), point_loads=()):
     lines, piers = lines_of(walls, regions)
     load = slab_load(regions, Fx=Fx, extra=extra)
-    result = allocate_flexible(load, regions, lines, piers, direction=direction,
-                               point_loads=point_loads)
+    result = allocate_flexible(
+        load, regions, lines, piers, direction=direction, point_loads=point_loads
+    )
     return lines, piers, result
 
 
 def _forces_by_offset(lines, result):
-    return {ln.offset: result.line_forces[ln.id] for ln in lines
-            if ln.direction is result.direction}
+    return {
+        ln.offset: result.line_forces[ln.id]
+        for ln in lines
+        if ln.direction is result.direction
+    }
 
 
-BOX = [x_wall("S", 0.0, 0.0, 20.0), x_wall("N", 10.0, 0.0, 20.0),
-       y_wall("W", 0.0, 0.0, 10.0), y_wall("E", 20.0, 0.0, 10.0)]
+BOX = [
+    x_wall("S", 0.0, 0.0, 20.0),
+    x_wall("N", 10.0, 0.0, 20.0),
+    y_wall("W", 0.0, 0.0, 10.0),
+    y_wall("E", 20.0, 0.0, 10.0),
+]
 
 
 def test_uniform_rectangle_between_two_lines_gives_half_to_each():
     lines, _, r = _run(BOX, [diaphragm(box(0, 0, 20, 10))], Fx=1000.0)
     assert by_offset([ln for ln in lines if ln.direction is X], r.line_forces) == [
-        pytest.approx(500.0), pytest.approx(500.0)]  # common practice: half and half
+        pytest.approx(500.0),
+        pytest.approx(500.0),
+    ]  # common practice: half and half
     (piece,) = r.pieces
     assert (piece.id, piece.supports) == ("L1/D1/X1", ("L1-X-1", "L1-X-2"))
     assert piece.centroid == pytest.approx((10.0, 5.0))
-    assert r.pier_forces == {"S|L1|0|0": pytest.approx(500.0),
-                             "N|L1|0|0": pytest.approx(500.0)}
-    assert r.conditions == () and r.applied == 1000.0
+    assert r.pier_forces == {
+        "S|L1|0|0": pytest.approx(500.0),
+        "N|L1|0|0": pytest.approx(500.0),
+    }
+    assert r.conditions == ()
+    assert r.applied == 1000.0
 
 
 def test_three_unequally_spaced_lines_take_their_tributary_widths():
@@ -120,36 +137,71 @@ def test_three_unequally_spaced_lines_take_their_tributary_widths():
     lines, _, r = _run(walls, [diaphragm(box(0, 0, 20, 10))], Fx=1000.0)
     # Hand: spans 4 m and 6 m; tributary widths 2, 2 + 3, 3 m of 10 m.
     assert by_offset([ln for ln in lines if ln.direction is X], r.line_forces) == [
-        pytest.approx(200.0), pytest.approx(500.0), pytest.approx(300.0)]
+        pytest.approx(200.0),
+        pytest.approx(500.0),
+        pytest.approx(300.0),
+    ]
 
 
 def test_symmetric_hole_keeps_half_and_half():
-    holed = Polygon(box(0, 0, 20, 10).exterior.coords, [box(8, 4, 12, 6).exterior.coords])
+    holed = Polygon(
+        box(0, 0, 20, 10).exterior.coords, [box(8, 4, 12, 6).exterior.coords]
+    )
     lines, _, r = _run(BOX, [diaphragm(holed)], Fx=1000.0)
     assert by_offset([ln for ln in lines if ln.direction is X], r.line_forces) == [
-        pytest.approx(500.0), pytest.approx(500.0)]  # mirror symmetry about y = 5
+        pytest.approx(500.0),
+        pytest.approx(500.0),
+    ]  # mirror symmetry about y = 5
 
 
 ELL = Polygon([(0, 0), (10, 0), (10, 5), (5, 5), (5, 10), (0, 10)])
 ELL_RECTS = [(0, 0, 10, 5), (0, 5, 5, 10)]
 
 
-@pytest.mark.parametrize(("walls", "direction", "supports", "cantilevers"), [
-    ([x_wall("A", 0, 0, 10), x_wall("B", 10, 0, 5)], X,
-     {0.0: (0, 10), 10.0: (0, 5)}, 1),
-    ([x_wall("A", 0, 0, 10), x_wall("B", 10, 0, 5), x_wall("C", 5, 5, 10)], X,
-     {0.0: (0, 10), 5.0: (0, 10), 10.0: (0, 5)}, 0),
-    ([y_wall("A", 0, 0, 10), y_wall("B", 10, 0, 5)], Y,
-     {0.0: (0, 10), 10.0: (0, 5)}, 1),
-    ([y_wall("A", 0, 0, 10), y_wall("B", 10, 0, 5), y_wall("C", 5, 6, 9)], Y,
-     {0.0: (0, 10), 5.0: (0, 10), 10.0: (0, 5)}, 0),
-])
+@pytest.mark.parametrize(
+    ("walls", "direction", "supports", "cantilevers"),
+    [
+        (
+            [x_wall("A", 0, 0, 10), x_wall("B", 10, 0, 5)],
+            X,
+            {0.0: (0, 10), 10.0: (0, 5)},
+            1,
+        ),
+        (
+            [x_wall("A", 0, 0, 10), x_wall("B", 10, 0, 5), x_wall("C", 5, 5, 10)],
+            X,
+            {0.0: (0, 10), 5.0: (0, 10), 10.0: (0, 5)},
+            0,
+        ),
+        (
+            [y_wall("A", 0, 0, 10), y_wall("B", 10, 0, 5)],
+            Y,
+            {0.0: (0, 10), 10.0: (0, 5)},
+            1,
+        ),
+        (
+            [y_wall("A", 0, 0, 10), y_wall("B", 10, 0, 5), y_wall("C", 5, 6, 9)],
+            Y,
+            {0.0: (0, 10), 5.0: (0, 10), 10.0: (0, 5)},
+            0,
+        ),
+    ],
+)
 def test_l_shape_matches_strip_integration(walls, direction, supports, cantilevers):
-    extra = MassItem(source="extra", ref="partitions", weight=500.0 * 12.0,
-                     location=(8.0, 1.5), polygon=box(6, 0, 10, 3))
+    extra = MassItem(
+        source="extra",
+        ref="partitions",
+        weight=500.0 * 12.0,
+        location=(8.0, 1.5),
+        polygon=box(6, 0, 10, 3),
+    )
     lines, _, r = _run(walls, [diaphragm(ELL)], direction=direction, extra=[extra])
-    ref, lost = _strip_reference(ELL_RECTS, [(rc, 1000.0) for rc in ELL_RECTS]
-                                 + [((6, 0, 10, 3), 500.0)], supports, direction=direction)
+    ref, lost = _strip_reference(
+        ELL_RECTS,
+        [(rc, 1000.0) for rc in ELL_RECTS] + [((6, 0, 10, 3), 500.0)],
+        supports,
+        direction=direction,
+    )
     got = _forces_by_offset(lines, r)
     assert lost == 0.0
     for v, share in ref.items():
@@ -162,19 +214,32 @@ T_SHAPE = Polygon([(0, 6), (4, 6), (4, 0), (8, 0), (8, 6), (12, 6), (12, 10), (0
 T_RECTS = [(0, 6, 12, 10), (4, 0, 8, 6)]
 
 
-@pytest.mark.parametrize(("walls", "direction", "supports", "by_hand"), [
-    # Hand: stem column 4 x 10 m halves (20 / 20), wings 2 x 4 x 4 m to y = 10; of 72.
-    ([x_wall("A", 0, 4, 8), x_wall("B", 10, 0, 12)], X,
-     {0.0: (4, 8), 10.0: (0, 12)}, {0.0: 20 / 72, 10.0: 52 / 72}),
-    # Hand: bar halves each side of x = 6 (12 + 12), stem all to x = 6 (24); of 72.
-    ([y_wall("A", 0, 6, 10), y_wall("B", 12, 6, 10), y_wall("C", 6, 0, 6)], Y,
-     {0.0: (6, 10), 6.0: (0, 10), 12.0: (6, 10)}, {0.0: 12 / 72, 6.0: 48 / 72,
-                                                  12.0: 12 / 72}),
-])
-def test_t_shape_matches_strip_integration_and_hand(walls, direction, supports, by_hand):
+@pytest.mark.parametrize(
+    ("walls", "direction", "supports", "by_hand"),
+    [
+        # Hand: stem column 4 x 10 m halves (20 / 20); wings 2 x 4 x 4 m to y = 10.
+        (
+            [x_wall("A", 0, 4, 8), x_wall("B", 10, 0, 12)],
+            X,
+            {0.0: (4, 8), 10.0: (0, 12)},
+            {0.0: 20 / 72, 10.0: 52 / 72},
+        ),
+        # Hand: bar halves each side of x = 6 (12 + 12), stem all to x = 6 (24); of 72.
+        (
+            [y_wall("A", 0, 6, 10), y_wall("B", 12, 6, 10), y_wall("C", 6, 0, 6)],
+            Y,
+            {0.0: (6, 10), 6.0: (0, 10), 12.0: (6, 10)},
+            {0.0: 12 / 72, 6.0: 48 / 72, 12.0: 12 / 72},
+        ),
+    ],
+)
+def test_t_shape_matches_strip_integration_and_hand(
+    walls, direction, supports, by_hand
+):
     lines, _, r = _run(walls, [diaphragm(T_SHAPE)], direction=direction, Fx=7200.0)
-    ref, _ = _strip_reference(T_RECTS, [(rc, 1.0) for rc in T_RECTS], supports,
-                              direction=direction)
+    ref, _ = _strip_reference(
+        T_RECTS, [(rc, 1.0) for rc in T_RECTS], supports, direction=direction
+    )
     got = _forces_by_offset(lines, r)
     for v, share in ref.items():
         assert got[v] == pytest.approx(share * 7200.0, rel=1e-3)  # strip integration
@@ -183,11 +248,14 @@ def test_t_shape_matches_strip_integration_and_hand(walls, direction, supports, 
 
 def test_piece_touching_one_line_cantilevers_to_it():
     walls = [x_wall("S", 0.0, 0.0, 10.0), y_wall("W", 0.0, 0.0, 10.0)]
-    lines, _, r = _run(walls, [diaphragm(box(0, 0, 10, 10))], Fx=800.0)
+    _lines, _, r = _run(walls, [diaphragm(box(0, 0, 10, 10))], Fx=800.0)
     assert r.line_forces == {"L1-X-1": pytest.approx(800.0)}  # common practice: all
     (c,) = r.conditions
-    assert (c.kind, c.ref, c.value) == (ConditionKind.CANTILEVER_PIECE, "L1/D1/X1",
-                                        pytest.approx(800.0))
+    assert (c.kind, c.ref, c.value) == (
+        ConditionKind.CANTILEVER_PIECE,
+        "L1/D1/X1",
+        pytest.approx(800.0),
+    )
     assert c.guids == ("S", "S-L1-1")
 
 
@@ -201,62 +269,102 @@ def test_piece_touching_no_line_is_unsupported_and_not_allocated():
 
 
 def test_wall_masses_on_line_go_to_it_and_inside_by_lever_rule():
-    walls = [x_wall("S", -0.1, 0.0, 10.0), x_wall("N", 10.0, 0.0, 10.0),
-             y_wall("W", 0.0, 0.0, 10.0), y_wall("P", 5.0, 1.0, 3.0)]
-    extra = [wall_mass("S", 20_000.0, (5.0, -0.1)), wall_mass("P", 10_000.0, (5.0, 2.0))]
+    walls = [
+        x_wall("S", -0.1, 0.0, 10.0),
+        x_wall("N", 10.0, 0.0, 10.0),
+        y_wall("W", 0.0, 0.0, 10.0),
+        y_wall("P", 5.0, 1.0, 3.0),
+    ]
+    extra = [
+        wall_mass("S", 20_000.0, (5.0, -0.1)),
+        wall_mass("P", 10_000.0, (5.0, 2.0)),
+    ]
     lines, _, r = _run(walls, [diaphragm(box(0, 0, 10, 10))], Fx=13_000.0, extra=extra)
     # Hand, W = 100 + 20 + 10 kN, Fx/W = 0.1: slab 10 kN halves; wall S 2 kN straight to
     # its line; wall P 1 kN at y = 2 of a 10 m span: 0.8 / 0.2 (lever rule).
     assert by_offset([ln for ln in lines if ln.direction is X], r.line_forces) == [
-        pytest.approx(5000.0 + 2000.0 + 800.0), pytest.approx(5000.0 + 200.0)]
+        pytest.approx(5000.0 + 2000.0 + 800.0),
+        pytest.approx(5000.0 + 200.0),
+    ]
 
 
 def test_point_load_from_non_stacking_wall_splits_by_lever_rule():
-    walls = [x_wall("S", 0.0, 0.0, 10.0), x_wall("N", 10.0, 0.0, 10.0),
-             y_wall("W", 0.0, 0.0, 10.0)]
+    walls = [
+        x_wall("S", 0.0, 0.0, 10.0),
+        x_wall("N", 10.0, 0.0, 10.0),
+        y_wall("W", 0.0, 0.0, 10.0),
+    ]
     lower, _ = lines_of(walls, [diaphragm(box(0, 0, 10, 10))])
-    upper_walls = [x_wall("U", 3.0, 4.0, 6.0, level="L2", storey="L1"),
-                   x_wall("V", 10.0, 2.0, 8.0, level="L2", storey="L1")]
-    _, upper = lines_of(upper_walls, [diaphragm(box(0, 0, 10, 10), level="L2")],
-                        level="L2", level_index=2)
+    upper_walls = [
+        x_wall("U", 3.0, 4.0, 6.0, level="L2", storey="L1"),
+        x_wall("V", 10.0, 2.0, 8.0, level="L2", storey="L1"),
+    ]
+    _, upper = lines_of(
+        upper_walls,
+        [diaphragm(box(0, 0, 10, 10), level="L2")],
+        level="L2",
+        level_index=2,
+    )
     forces = {"U|L2|0|0": 1000.0, "V|L2|0|0": 400.0}
-    loads, conditions = transfer_point_loads(upper, forces, lower, level_below="L1",
-                                             direction=X, tolerance=0.5)
+    loads, conditions = transfer_point_loads(
+        upper, forces, lower, level_below="L1", direction=X, tolerance=0.5
+    )
     assert [(p.source_pier, p.location, p.force) for p in loads] == [
-        ("U|L2|0|0", (5.0, 3.0), 1000.0)]  # V stands on the line at y = 10
+        ("U|L2|0|0", (5.0, 3.0), 1000.0)
+    ]  # V stands on the line at y = 10
     assert [(c.kind, c.guids, c.level) for c in conditions] == [
-        (ConditionKind.NON_STACKING_WALL, ("U",), "L1")]
+        (ConditionKind.NON_STACKING_WALL, ("U",), "L1")
+    ]
     _, _, r = _run(walls, [diaphragm(box(0, 0, 10, 10))], Fx=0.0, point_loads=loads)
     # Hand: P = 1000 N at a = 3 m from y = 0, b = 7 m: R0 = P b / L = 700, R10 = 300 N.
-    assert by_offset(lower[:2], r.line_forces) == [pytest.approx(700.0),
-                                                   pytest.approx(300.0)]
-    assert r.point_loads[0].shares == (("L1-X-1", pytest.approx(700.0)),
-                                       ("L1-X-2", pytest.approx(300.0)))
+    assert by_offset(lower[:2], r.line_forces) == [
+        pytest.approx(700.0),
+        pytest.approx(300.0),
+    ]
+    assert r.point_loads[0].shares == (
+        ("L1-X-1", pytest.approx(700.0)),
+        ("L1-X-2", pytest.approx(300.0)),
+    )
     assert r.applied == 1000.0
 
 
 def test_lever_rule_by_hand():
     from allocation._pieces import Support
-    s = (Support(line="a", v=0.0, segments=((0, 1),)),
-         Support(line="b", v=8.0, segments=((0, 1),)))
+
+    s = (
+        Support(line="a", v=0.0, segments=((0, 1),)),
+        Support(line="b", v=8.0, segments=((0, 1),)),
+    )
     assert lever_rule(800.0, 2.0, s) == (("a", 600.0), ("b", 200.0))  # F b/L, F a/L
     assert lever_rule(800.0, 10.0, s) == (("a", -200.0), ("b", 1000.0))  # overhang
     assert lever_rule(800.0, 2.0, s[:1]) == (("a", 800.0),)
     assert lever_rule(800.0, 2.0, ()) == ()
 
 
-def test_force_without_weight_is_an_error():
-    region = diaphragm(box(0, 0, 10, 10))
+def test_given_force_on_weightless_level_is_spread_by_area():
+    region = diaphragm(box(0, 0, 20, 10))
     lines, piers = lines_of(BOX, [region])
     load = slab_load([region], Fx=100.0, unit_weight=0.0)
-    with pytest.raises(AllocationError, match="no seismic weight"):
-        allocate_flexible(load, [region], lines, piers, direction=X)
+    r = allocate_flexible(load, [region], lines, piers, direction=X)
+    assert by_offset(lines[:2], r.line_forces) == [pytest.approx(50.0)] * 2  # symmetry
+    assert r.pieces[0].weight == 0.0
+
+
+def test_force_with_no_diaphragm_is_reported_not_allocated():
+    lines, piers = lines_of(BOX, [])
+    load = slab_load([], Fx=100.0)
+    r = allocate_flexible(load, [], lines, piers, direction=X)
+    assert set(r.line_forces.values()) == {0.0}
+    (c,) = r.conditions
+    assert (c.kind, c.value) == (ConditionKind.UNSUPPORTED_PIECE, 100.0)
 
 
 # --- properties -------------------------------------------------------------------
 
+
 def _plan(W, H, fracs, point, transform=lambda x, y: (x, y)):
-    """Rectangle W x H with X lines at 0, H and H*fracs, Y lines at 0 and W; transformed."""
+    """W x H box, X lines at 0, H and H*fracs, Y lines at 0 and W, transformed."""
+
     def t(p):
         return transform(*p)
 
@@ -269,16 +377,25 @@ def _plan(W, H, fracs, point, transform=lambda x, y: (x, y)):
     walls = [segment(f"W{i}", t(s), t(e)) for i, (s, e) in enumerate(raw)]
     region = diaphragm(poly(box(0, 0, W, H)))
     px, py, pw = point
-    extra = [wall_mass("M", pw, t((px * W, py * H))),
-             MassItem(source="extra", ref="x", weight=3000.0, location=t((0.1, 0.1)),
-                      polygon=poly(box(0, 0, 0.5 * W, 0.3 * H)))]
+    extra = [
+        wall_mass("M", pw, t((px * W, py * H))),
+        MassItem(
+            source="extra",
+            ref="x",
+            weight=3000.0,
+            location=t((0.1, 0.1)),
+            polygon=poly(box(0, 0, 0.5 * W, 0.3 * H)),
+        ),
+    ]
     return walls, region, extra
 
 
 plans = st.tuples(
-    st.floats(4.0, 30.0), st.floats(4.0, 30.0),
-    st.lists(st.floats(0.1, 0.9), max_size=3, unique=True).map(sorted).filter(
-        lambda fs: all(b - a > 0.1 for a, b in zip(fs, fs[1:], strict=False))),
+    st.floats(4.0, 30.0),
+    st.floats(4.0, 30.0),
+    st.lists(st.floats(0.1, 0.9), max_size=3, unique=True)
+    .map(sorted)
+    .filter(lambda fs: all(b - a > 0.1 for a, b in itertools.pairwise(fs))),
     st.tuples(st.floats(0.0, 1.0), st.floats(0.0, 1.0), st.floats(0.0, 5e4)),
 )
 FAST = settings(max_examples=25, derandomize=True, deadline=None)
@@ -290,9 +407,16 @@ def test_line_forces_add_up_to_level_force_and_point_loads(plan, Fx, P):  # stat
     W, H, fracs, point = plan
     walls, region, extra = _plan(W, H, fracs, point)
     from allocation.results import PointLoad
-    pl = PointLoad(level="L1", direction=X, source_pier="U|L2|0|0",
-                   location=(0.3 * W, 0.7 * H), force=P, shares=())
-    lines, _, r = _run(walls, [region], Fx=Fx, extra=extra, point_loads=[pl])
+
+    pl = PointLoad(
+        level="L1",
+        direction=X,
+        source_pier="U|L2|0|0",
+        location=(0.3 * W, 0.7 * H),
+        force=P,
+        shares=(),
+    )
+    _lines, _, r = _run(walls, [region], Fx=Fx, extra=extra, point_loads=[pl])
     assert math.fsum(r.line_forces.values()) == pytest.approx(Fx + P, rel=1e-9)
     assert math.fsum(r.pier_forces.values()) == pytest.approx(Fx + P, rel=1e-9)
     assert sum(p.polygon.area for p in r.pieces) == pytest.approx(W * H, rel=1e-9)
@@ -303,7 +427,7 @@ def test_line_forces_add_up_to_level_force_and_point_loads(plan, Fx, P):  # stat
 def test_symmetric_plan_gives_mirror_lines_equal_forces(plan, Fx):
     W, H, fracs, _ = plan
     sym = sorted({*fracs, *(1.0 - f for f in fracs)})
-    if any(b - a < 0.05 for a, b in zip(sym, sym[1:], strict=False)):
+    if any(b - a < 0.05 for a, b in itertools.pairwise(sym)):
         sym = fracs = []
     walls, region, _ = _plan(W, H, sym, (0.5, 0.5, 0.0))
     lines, _, r = _run(walls, [region], Fx=Fx)
@@ -321,7 +445,9 @@ def test_translation_leaves_forces_unchanged(plan, dx, dy):
         walls, region, extra = _plan(W, H, fracs, point, lambda x, y: (x + dx, y + dy))
         moved_lines, _, moved = _run(walls, [region], extra=extra, direction=d)
         a = by_offset([ln for ln in lines if ln.direction is d], base.line_forces)
-        b = by_offset([ln for ln in moved_lines if ln.direction is d], moved.line_forces)
+        b = by_offset(
+            [ln for ln in moved_lines if ln.direction is d], moved.line_forces
+        )
         assert b == pytest.approx(a, rel=1e-6, abs=1e-6)
 
 

@@ -25,9 +25,16 @@ def test_wall_without_openings_is_one_pier():
 
 
 def test_door_and_window_split_wall_into_three_piers():
-    # Hand geometry: 6 m wall, door 1-2 m, window 4-5 m (sill 0.9 m) -> piers 0-1, 2-4, 5-6.
-    wall = segment("W1", (10.0, 3.0), (16.0, 3.0), openings=[
-        opening("D1", 1.0, 2.0), opening("N1", 4.0, 5.0, bottom=0.9, top=2.1)])
+    # Hand geometry: 6 m wall, door 1-2 m, window 4-5 m -> piers 0-1, 2-4, 5-6 m.
+    wall = segment(
+        "W1",
+        (10.0, 3.0),
+        (16.0, 3.0),
+        openings=[
+            opening("D1", 1.0, 2.0),
+            opening("N1", 4.0, 5.0, bottom=0.9, top=2.1),
+        ],
+    )
     model = building([wall])
     piers, conditions = make_piers(model.shear_walls, OPTIONS)
     assert conditions == ()
@@ -39,12 +46,18 @@ def test_door_and_window_split_wall_into_three_piers():
 
 
 def test_overlapping_openings_merge_and_reversed_wall_runs_from_start():
-    # Hand geometry: wall from (0, 6) down to (0, 0); openings 1-3 and 2.5-4 m merge to 1-4.
-    wall = segment("W2", (0.0, 6.0), (0.0, 0.0), openings=[
-        opening("O1", 1.0, 3.0), opening("O2", 2.5, 4.0)])
+    # Hand geometry: wall (0, 6) to (0, 0); openings 1-3 and 2.5-4 m merge to 1-4.
+    wall = segment(
+        "W2",
+        (0.0, 6.0),
+        (0.0, 0.0),
+        openings=[opening("O1", 1.0, 3.0), opening("O2", 2.5, 4.0)],
+    )
     piers, _ = make_piers([wall], OPTIONS)
-    assert [(p.start, p.end) for p in piers] == [((0.0, 6.0), (0.0, 5.0)),
-                                                 ((0.0, 2.0), (0.0, 0.0))]
+    assert [(p.start, p.end) for p in piers] == [
+        ((0.0, 6.0), (0.0, 5.0)),
+        ((0.0, 2.0), (0.0, 0.0)),
+    ]
     assert all(p.direction is Direction.Y for p in piers)
 
 
@@ -66,10 +79,18 @@ def test_opening_over_whole_wall_leaves_no_pier():
     assert c.value == pytest.approx(2.0)
 
 
-@pytest.mark.parametrize(("degrees", "expected"), [
-    (0.0, Direction.X), (9.9, Direction.X), (175.0, Direction.X),
-    (90.0, Direction.Y), (81.0, Direction.Y), (30.0, None), (135.0, None),
-])  # angle_tolerance 10 deg, DESIGN.md configuration default
+@pytest.mark.parametrize(
+    ("degrees", "expected"),
+    [
+        (0.0, Direction.X),
+        (9.9, Direction.X),
+        (175.0, Direction.X),
+        (90.0, Direction.Y),
+        (81.0, Direction.Y),
+        (30.0, None),
+        (135.0, None),
+    ],
+)  # angle_tolerance 10 deg, DESIGN.md configuration default
 def test_wall_direction(degrees, expected):
     assert wall_direction(math.radians(degrees), math.radians(10.0)) is expected
 
@@ -84,19 +105,28 @@ def test_skewed_wall_gives_condition_and_unallocated_piers():
 
 
 def test_non_shear_walls_and_walls_under_no_level_are_skipped():
-    walls = [segment("P1", (0.0, 0.0), (4.0, 0.0), shear=False),
-             segment("PA", (0.0, 0.0), (4.0, 0.0), level="")]
+    walls = [
+        segment("P1", (0.0, 0.0), (4.0, 0.0), shear=False),
+        segment("PA", (0.0, 0.0), (4.0, 0.0), level=""),
+    ]
     assert make_piers(walls, OPTIONS) == ((), ())
 
 
 @settings(max_examples=60, derandomize=True, deadline=None)
-@given(length=st.floats(1.0, 20.0),
-       cuts=st.lists(st.tuples(st.floats(0.0, 1.0), st.floats(0.01, 0.3)), max_size=4))
+@given(
+    length=st.floats(1.0, 20.0),
+    cuts=st.lists(st.tuples(st.floats(0.0, 1.0), st.floats(0.01, 0.3)), max_size=4),
+)
 def test_piers_cover_the_wall_less_its_openings(length, cuts):
-    # Geometry: piers lie outside every opening, and piers + openings + slivers = length.
-    ops = [opening(f"O{i}", s * length, min(length, s * length + w * length))
-           for i, (s, w) in enumerate(cuts) if min(length, s * length + w * length) > s * length]
-    piers, _ = make_piers([segment("W", (0.0, 0.0), (length, 0.0), openings=ops)], OPTIONS)
+    # Geometry: piers lie outside openings; piers + openings + slivers = length.
+    ops = [
+        opening(f"O{i}", s * length, min(length, s * length + w * length))
+        for i, (s, w) in enumerate(cuts)
+        if min(length, s * length + w * length) > s * length
+    ]
+    piers, _ = make_piers(
+        [segment("W", (0.0, 0.0), (length, 0.0), openings=ops)], OPTIONS
+    )
     for p in piers:
         for o in ops:
             assert p.end[0] <= o.start + 1e-9 or p.start[0] >= o.end - 1e-9

@@ -19,12 +19,18 @@ def wall(name, x, *, length=2.0, k=0.0, assembly="A"):
 
 
 def test_by_length_is_proportional_to_length():
-    piers = [wall("A", 0, length=1.0), wall("B", 5, length=2.0),
-             wall("C", 9, length=3.0)]
+    piers = [
+        wall("A", 0, length=1.0),
+        wall("B", 5, length=2.0),
+        wall("C", 9, length=3.0),
+    ]
     out = distribute_in_line(600.0, piers, by="length")
     # common practice: F_i = F L_i / ΣL, DESIGN.md item 9 -> 100, 200, 300 N
-    assert out == {"A|L1|0|0": pytest.approx(100.0), "B|L1|0|0": pytest.approx(200.0),
-                   "C|L1|0|0": pytest.approx(300.0)}
+    assert out == {
+        "A|L1|0|0": pytest.approx(100.0),
+        "B|L1|0|0": pytest.approx(200.0),
+        "C|L1|0|0": pytest.approx(300.0),
+    }
 
 
 def test_by_stiffness_is_proportional_to_stiffness():
@@ -42,23 +48,29 @@ def test_basis_follows_assemblies():
     assert choose_basis(unset) is InLineBasis.LENGTH
 
 
-@pytest.mark.parametrize(("piers", "by", "text"), [
-    ([wall("A", 0)], "area", "not one of"),
-    ([], "length", "no piers"),
-    ([wall("A", 0, k=0.0)], "stiffness", "A|L1|0|0"),
-])
+@pytest.mark.parametrize(
+    ("piers", "by", "text"),
+    [
+        ([wall("A", 0)], "area", "not one of"),
+        ([], "length", "no piers"),
+        ([wall("A", 0, k=0.0)], "stiffness", "A|L1|0|0"),
+    ],
+)
 def test_bad_input_is_a_one_line_parameter_error(piers, by, text):
     with pytest.raises(ParameterError, match=text):
         distribute_in_line(100.0, piers, by=by)
 
 
 @settings(max_examples=80, derandomize=True, deadline=None)
-@given(force=st.floats(-1e7, 1e7),
-       lengths=st.lists(st.floats(0.1, 30.0), min_size=1, max_size=8))
+@given(
+    force=st.floats(-1e7, 1e7),
+    lengths=st.lists(st.floats(0.1, 30.0), min_size=1, max_size=8),
+)
 def test_shares_add_up_to_line_force(force, lengths):  # statics: Σ F_i = F
     piers = [wall(f"P{i}", 40.0 * i, length=L) for i, L in enumerate(lengths)]
     out = distribute_in_line(force, piers, by="length")
     assert math.fsum(out.values()) == pytest.approx(force, rel=1e-14, abs=1e-9)
     for p in piers:
-        assert out[p.id] == pytest.approx(force * p.length / sum(lengths), rel=1e-9,
-                                          abs=1e-6)
+        assert out[p.id] == pytest.approx(
+            force * p.length / sum(lengths), rel=1e-9, abs=1e-6
+        )

@@ -85,11 +85,11 @@ def test_gypsum_board_nominal_unit_shear(
 @pytest.mark.parametrize(
     ("spacing_in", "vw_plf"),
     [
-        (6, 730),
-        (4, 1065),
-        (3, 1370),
-        (2, 1790),
-    ],  # SDPWS 2015 Table 4.3A wind column, from memory
+        (6, 730),  # SDPWS 2015 Table 4.3A wind column, from memory
+        (4, 1065),  # SDPWS 2015 Table 4.3A wind column, from memory
+        (3, 1370),  # SDPWS 2015 Table 4.3A wind column, from memory
+        (2, 1790),  # SDPWS 2015 Table 4.3A wind column, from memory
+    ],
 )
 def test_seismic_column_is_wind_column_over_1_4(spacing_in, vw_plf):
     # SDPWS format (Line & Russell, Wood Design Focus): vs = vw / 1.4; the table rounds
@@ -118,16 +118,14 @@ def test_every_library_value_is_marked_from_memory():
 )
 def test_names_match_case_and_inch_mark_insensitively(sheathing, fastener):
     vs = nominal_unit_shear(sheathing, fastener, 6 * IN)
-    assert vs == pytest.approx(
-        680 * PLF, rel=1e-12
-    )  # SDPWS 2015 Table 4.3A, from memory
+    expected = 680 * PLF  # SDPWS 2015 Table 4.3A, from memory
+    assert vs == pytest.approx(expected, rel=1e-12)
 
 
 def test_spacing_matches_within_a_millimetre():
     vs = nominal_unit_shear("15/32 Structural I", "10d common", 0.152)  # 152 mm ~ 6 in
-    assert vs == pytest.approx(
-        680 * PLF, rel=1e-12
-    )  # SDPWS 2015 Table 4.3A, from memory
+    expected = 680 * PLF  # SDPWS 2015 Table 4.3A, from memory
+    assert vs == pytest.approx(expected, rel=1e-12)
 
 
 def test_unknown_combination_lists_what_exists():

@@ -10,9 +10,14 @@ from __future__ import annotations
 
 import ifcopenshell
 import ifcopenshell.geom
+import ifcopenshell.util.element
+import ifcopenshell.util.placement
 import ifcopenshell.util.shape
+import numpy as np
 import pytest
 
+from ifc_bridge._direct import axis2placement
+from ifc_bridge._semantics import wall_semantics
 from ifc_bridge.open_file import open_ifc
 from ifc_bridge.read_model import read_model
 from tests.conftest import sample_path
@@ -120,3 +125,27 @@ def test_vectorworks_doors_without_openings_are_reported():
     assert len(hits) == 2  # 1 door + 1 window with no IfcRelFillsElement, README.md
     assert all(len(i.guids) == 2 for i in hits)  # each matched to the wall it sits in
     assert model.ifc_wall_count == 8  # 8 IfcWallStandardCase, README.md
+
+
+def test_fast_placement_matrix_matches_ifcopenshell(sample):
+    _, ifc, _ = sample
+    for cls in ("IfcAxis2Placement3D", "IfcAxis2Placement2D"):
+        for placement in ifc.by_type(cls):
+            ours = axis2placement(placement)
+            ref = ifcopenshell.util.placement.get_axis2placement(
+                placement
+            )  # reference library
+            assert np.abs(ours - ref).max() < 1e-12
+
+
+def test_semantics_match_ifcopenshell_util_element(sample):
+    _, ifc, _ = sample
+    for wall in ifc.by_type("IfcWall"):
+        sem = wall_semantics(wall, 1.0)
+        ref = [m.Name for m in ifcopenshell.util.element.get_materials(wall) if m.Name]
+        assert sem.materials == tuple(ref)  # ifcopenshell.util.element.get_materials
+        ref_type = ifcopenshell.util.element.get_type(wall)
+        assert sem.type_name == ((ref_type.Name or "") if ref_type else "")
+        if "PredefinedType" in wall.get_attribute_names():  # IFC4+: same rule
+            expected = ifcopenshell.util.element.get_predefined_type(wall) or ""
+            assert sem.predefined_type == expected

@@ -38,7 +38,6 @@ from checks.rules._support import (
     fmt,
     level_guids,
     level_load,
-    line_guids,
     perp,
     slab_guids,
 )
@@ -364,34 +363,40 @@ def check_diaphragm(
 def _collector_findings(
     collectors: tuple[Collector, ...], allocation: Allocation, config: ProjectConfig
 ) -> list[Finding]:
-    out = []
-    lines = {ln.id: ln for ln in allocation.lines}
+    """One info finding per level and direction naming its largest collector force."""
+    worst: dict[tuple, Collector] = {}
+    count: dict[tuple, int] = {}
     for c in collectors:
-        guids = line_guids(allocation, lines[c.line]) or level_guids(
-            allocation, c.level
-        )
-        omega = f"Ω0 = {c.omega0:g} (SDC C–F)" if c.omega0 != 1.0 else "no Ω0 (SDC A–B)"
+        key = (c.level, c.direction)
+        count[key] = count.get(key, 0) + 1
+        if key not in worst or (c.force, c.line) > (worst[key].force, worst[key].line):
+            worst[key] = c
+    out = []
+    for (level, d), c in sorted(worst.items()):
+        omega = f"Ω0 ({c.omega0:g}, SDC C–F)" if c.omega0 != 1.0 else "1.0 (SDC A–B)"
         force = fmt(c.force, "force", config)
         out.append(
             Finding(
                 rule=RULE,
                 clause="ASCE 7-16 §12.10.2.1",
                 severity=Severity.INFO,
-                level=c.level,
-                direction=c.direction,
-                guids=guids,
-                title=f"Collector force {force} on line {c.line}",
+                level=level,
+                direction=d,
+                guids=level_guids(allocation, level),
+                title=f"Collector force up to {force}",
                 description=(
-                    f"Line {c.line} of {c.level!r}: {fmt(c.length, 'length', config)} "
-                    "of its "
-                    "crossing has no wall; the collectors there take "
+                    f"{count[(level, d)]} line(s) of {level!r} in {d.value} have "
+                    "collectors. "
+                    f"Largest: line {c.line}, where {fmt(c.length, 'length', config)} "
+                    "of the "
+                    "crossing has no wall; the collectors take "
                     f"{fmt(c.unit_shear, 'force_per_length', config)} × length × "
                     f"{omega} "
                     f"= {force} (an upper bound at the wall ends)."
                 ),
                 demand=c.force,
                 unit="N",
-                discriminator=f"{c.level}|{c.direction.value}|collector",
+                discriminator=f"{level}|{d.value}|collector",
             )
         )
     return out

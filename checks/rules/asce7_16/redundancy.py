@@ -87,8 +87,7 @@ def _extreme_without(
     config: ProjectConfig,
     model: BuildingModel | None,
 ) -> bool | None:
-    """True if removing ``pier`` makes the story extremely torsional; None: not "
-    "checked."""
+    """True if removing ``pier`` makes the story extremely torsional; None: unknown."""
     try:
         from allocation.rigid import allocate_rigid_story
     except ImportError:

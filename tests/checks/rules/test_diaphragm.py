@@ -1,5 +1,4 @@
-"""Diaphragm unit shear, chord and collector forces "
-"(checks.rules.asce7_16.diaphragm)."""
+"""Diaphragm unit shear, chord and collector forces (rules.asce7_16.diaphragm)."""
 
 from __future__ import annotations
 
@@ -165,7 +164,8 @@ def test_findings_are_info_pinned_to_the_slabs():
     assert shear.guids == ("slab1",)
     assert shear.demand == pytest.approx(4200.0)
     collector = next(f for f in found if "collector" in f.discriminator)
-    assert collector.guids == ("w1",)  # the walls of the line
+    assert collector.guids == ("storeyRoof",)  # one per level and direction
+    assert collector.demand == pytest.approx(3.0 * 4200.0 * 6.0)  # ASCE 7-16 §12.10.2.1
 
 
 def test_slender_piece_is_a_warning():

@@ -1,5 +1,4 @@
-"""Horizontal irregularities, ASCE 7-16 Table 12.3-1 "
-"(checks.rules.asce7_16.irregularities)."""
+"""Horizontal irregularities, ASCE 7-16 Table 12.3-1 (rules.asce7_16.irregularities)."""
 
 from __future__ import annotations
 

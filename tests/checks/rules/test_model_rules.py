@@ -1,5 +1,4 @@
-"""Model data rules: import issues and shear walls with no assembly "
-"(checks.rules.model)."""
+"""Model data rules: import issues and shear walls with no assembly."""
 
 from __future__ import annotations
 

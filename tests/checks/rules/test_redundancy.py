@@ -14,8 +14,7 @@ X, Y = Direction.X, Direction.Y
 
 
 def _story(y_piers):
-    """Roof story, 10 m × 10 m: X walls 10 m long at y = 0 and 10 (h/l = 0.3), and Y "
-    "piers."""
+    """Roof story 10 m × 10 m: X walls 10 m at y = 0 and 10 (h/l = 0.3), Y piers."""
     xs = [
         pier("x1", start=(0.0, 0.0), end=(10.0, 0.0), height=3.0),
         pier("x2", start=(0.0, 10.0), end=(10.0, 10.0), height=3.0),
