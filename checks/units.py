@@ -66,6 +66,7 @@ _NUMBER: Final = re.compile(
 # numbers; no unit of the trade needs one.
 _POWER_CHAIN: Final = re.compile(r"(\*\*|\^)[^*/^]*(\*\*|\^)")
 _MAX_TEXT: Final = 80
+_ACCELERATION: Final = ureg.parse_units("m/s**2")
 
 # Display units per quantity kind: (imperial, SI), each (pint unit, label).
 DISPLAY_QUANTITIES: Final[dict[str, tuple[str, tuple[str, str], tuple[str, str]]]] = {
@@ -174,7 +175,12 @@ def _convert(
     is_angle_target = not target.dimensionality
     wrong_angle = is_angle_target and got != "an angle"
     if units.dimensionality != target.dimensionality or wrong_angle:
-        hint = " (write 'lbf' or 'kip' for a force)" if got == "a mass" else ""
+        mass_for_force = (units * _ACCELERATION).dimensionality == target.dimensionality
+        hint = (
+            " ('lb' is a mass: write 'lbf' or 'kip' for a force)"
+            if mass_for_force
+            else ""
+        )
         msg = (
             f"{where} = {show_value(text)}: that is {got}, expected {want} such as "
             f"{example}{hint}"

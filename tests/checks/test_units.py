@@ -88,9 +88,15 @@ def test_one_registry_for_the_project():  # pint docs: one registry per package
         (
             "10 lb",
             "N",
-            "a mass, expected a force such as '10 kip' or '45 kN' (write 'lbf'",
+            "a mass, expected a force such as '10 kip' or '45 kN' ('lb' is a mass",
         ),
         ("5 m", "rad", "that is a length, expected an angle"),
+        ("260 lb/ft", "N/m", "('lb' is a mass: write 'lbf' or 'kip' for a force)"),
+        (
+            "15 lb/ft**2",
+            "Pa",
+            "expected a pressure such as '15 psf' or '0.72 kPa' ('lb'",
+        ),
         ("10 %", "rad", "a plain ratio, expected an angle"),
         ("nan psf", "Pa", "not a finite number"),
         ("inf plf", "N/m", "not a finite number"),
