@@ -6,10 +6,12 @@ Y the coordinates are swapped, (u, v) = (y, x). ``u`` runs along the lines and `
 across them, which is the direction the diaphragm spans.
 
 Two cuts make the pieces. First, each line's chords (the crossings its walls cut) split
-the region. Second, where a line's contact with a piece ends inside the piece's u-range,
-the piece is cut across (at u = that end): the part beyond no longer has that line at
-its edge. After both cuts every piece spans in v between the line below and the line
-above (or one, or none), as a simple beam (common practice).
+the region. Second, where a line's chord ends at a free edge of the slab (a re-entrant
+corner, a notch) inside the u-range of a piece it touches, the piece is cut across (at
+u = that end): the part beyond has no such line at its edge. A gap in the chord at an
+interior opening (a stair) is not a free edge: the diaphragm spans around it. After
+both cuts every piece spans in v between the line below and the line above (or one,
+or none), as a simple beam (common practice).
 """
 
 from __future__ import annotations
@@ -39,11 +41,14 @@ class Support:
         line: Line id.
         v: Local across-coordinate of the chords [m].
         segments: Chords as (u0, u1) [m].
+        spans: Chords of the region with holes filled that hold the segments; the
+            pieces are cut across where they end (defaults to ``segments``) [m].
     """
 
     line: str
     v: float
     segments: tuple[tuple[float, float], ...]
+    spans: tuple[tuple[float, float], ...] = ()
 
 
 @dataclass(frozen=True, slots=True, kw_only=True)
@@ -103,7 +108,15 @@ def _contact(piece: Polygon, support: Support) -> list[tuple[float, float]]:
 
 def _cut_across(piece: Polygon, supports: Sequence[Support]) -> list[Polygon]:
     u0, v0, u1, v1 = piece.bounds
-    ends = sorted({e for s in supports for span in _contact(piece, s) for e in span})
+    ends = sorted(
+        {
+            e
+            for s in supports
+            if _contact(piece, s)
+            for span in (s.spans or s.segments)
+            for e in span
+        }
+    )
     ends = [e for e in ends if u0 + _EPS < e < u1 - _EPS]
     if not ends:
         return [piece]

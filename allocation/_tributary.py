@@ -78,7 +78,11 @@ def make_slots(
         for line in lines:
             c = line_crossing(line, region, tolerance=tol)
             if c is not None:
-                supports.append(Support(line=line.id, v=c.offset, segments=c.segments))
+                supports.append(
+                    Support(
+                        line=line.id, v=c.offset, segments=c.segments, spans=c.spans
+                    )
+                )
         local = to_local(region.polygon, direction)
         for n, piece in enumerate(split_region(local, supports), start=1):
             slots.append(

@@ -11,7 +11,9 @@ practice: the engineer's tolerance is on the gap between neighbouring walls).
 
 A line supports a diaphragm region over each full crossing (chord) of the region that
 its walls physically cut: of the chords of the infinite line at the offset (holes
-excluded), those that overlap the walls' extent. Where the walls stop short of the
+excluded), those that overlap the walls' extent. A line within 1e-6 m of a slab
+vertex's coordinate is taken exactly at it, so round-off in the offset cannot move it
+off an edge it runs along. Where the walls stop short of the
 chord, collectors are assumed (DESIGN.md item 5). When the walls sit just outside the
 slab edge, the chord is taken at the nearest slab edge within ``line_tolerance``.
 """
@@ -31,6 +33,7 @@ from ifc_bridge.model import Diaphragm, Direction
 __all__ = ["Crossing", "along", "find_lines", "line_crossing", "perpendicular"]
 
 _EPS = 1e-9  # [m] geometric coincidence
+_SNAP = 1e-6  # [m] a line this close to a slab vertex's coordinate is taken at it
 
 
 @dataclass(frozen=True, slots=True, kw_only=True)
@@ -42,11 +45,16 @@ class Crossing:
         offset: Perpendicular coordinate of the chord(s) [m]; the line's offset, or
             the nearest slab edge within the tolerance when the walls are just off it.
         segments: Chords as ``(start, end)`` along-line coordinates, sorted [m].
+        spans: The chords of the region with its holes filled that hold
+            ``segments``; where they end the slab has a free edge, whereas a gap
+            between segments inside a span is an opening the diaphragm spans
+            around (common practice) [m].
     """
 
     diaphragm: str
     offset: float
     segments: tuple[tuple[float, float], ...]
+    spans: tuple[tuple[float, float], ...] = ()
 
     @property
     def length(self) -> float:
@@ -122,23 +130,26 @@ def line_crossing(
     Returns:
         The crossing, or None when the line's walls cut no chord of the region.
     """
-    poly, d = diaphragm.polygon, line.direction
-    found = _overlapping(_chords(poly, d, line.offset), line.wall_extent)
-    if found:
-        return Crossing(
-            diaphragm=diaphragm.id, offset=float(line.offset), segments=found
-        )
+    poly, d, off = diaphragm.polygon, line.direction, line.offset
     rings = [poly.exterior, *poly.interiors]
     edges = sorted(
         {perpendicular(c, d) for r in rings for c in r.coords},
-        key=lambda v: (abs(v - line.offset), v),
+        key=lambda v: (abs(v - off), v),
     )
-    for v in edges:
-        if abs(v - line.offset) > tolerance:
-            break
+    exact = edges[0] if edges and abs(edges[0] - off) <= _SNAP else off
+    near = [v for v in edges if abs(v - off) <= tolerance and v != exact]
+    for v in (exact, *near):
         found = _overlapping(_chords(poly, d, v), line.wall_extent)
         if found:
-            return Crossing(diaphragm=diaphragm.id, offset=float(v), segments=found)
+            filled = _chords(Polygon(poly.exterior), d, v)
+            spans = tuple(
+                (a, b)
+                for a, b in filled
+                if any(min(b, t) > max(a, s) for s, t in found)
+            )
+            return Crossing(
+                diaphragm=diaphragm.id, offset=float(v), segments=found, spans=spans
+            )
     return None
 
 

@@ -40,17 +40,21 @@ class CheckRun:
         config: The project config.
         allocation: Forces per level, line and pier.
         checks: The rule results (findings, per-pier numbers, rho).
+        requirement_findings: Failures of the model requirements (IDS).
     """
 
     model: BuildingModel
     config: ProjectConfig
     allocation: Allocation
     checks: object
+    requirement_findings: tuple[Finding, ...] = ()
 
     @property
     def findings(self) -> tuple[Finding, ...]:
-        """All findings, errors first."""
-        return tuple(self.checks.findings)
+        """All findings, errors first, then by id."""
+        order = {Severity.ERROR: 0, Severity.WARNING: 1, Severity.INFO: 2}
+        both = (*self.checks.findings, *self.requirement_findings)
+        return tuple(sorted(both, key=lambda f: (order[f.severity], f.id)))
 
     @property
     def has_errors(self) -> bool:
@@ -128,7 +132,18 @@ def check_model(
     _check_storey_names(model, cfg)
     allocation = allocate(model, cfg.seismic, cfg.loads, cfg.analysis)
     checks = run_checks(model, allocation, cfg)
-    return CheckRun(model=model, config=cfg, allocation=allocation, checks=checks)
+    return CheckRun(
+        model=model, config=cfg, allocation=allocation, checks=checks,
+        requirement_findings=tuple(_requirements(model_path)),
+    )
+
+
+def _requirements(model_path: str | os.PathLike) -> list[Finding]:
+    """The model checked against the IDS of :mod:`checks.requirements`."""
+    from checks.requirements import requirement_findings
+    from ifc_bridge.open_file import open_ifc
+
+    return requirement_findings(open_ifc(model_path), source=str(model_path))
 
 
 def write_outputs(

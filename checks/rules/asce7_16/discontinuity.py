@@ -40,6 +40,7 @@ def _base(c: Condition, allocation: Allocation, model: BuildingModel | None) -> 
         "level": c.level,
         "direction": c.direction,
         "guids": c.guids or level_guids(allocation, c.level, model),
+        # the condition's ref (a piece id) only tells apart conditions on one element
         "discriminator": f"{c.level}|{d}|{c.kind.value}"
         + (f"|{c.ref}" if c.ref else ""),
     }
@@ -164,8 +165,14 @@ def _cantilever(
     )
     lines = {ln.id: ln for ln in allocation.lines}
     text = c.detail
+    base = _base(c, allocation, model)
     if piece is not None and piece.supports and piece.supports[0] in lines:
-        Lc, W = cantilever_limits(piece, lines[piece.supports[0]].offset)
+        offset = lines[piece.supports[0]].offset
+        Lc, W = cantilever_limits(piece, offset)
+        # stable across revisions: the side of its line, not the piece's number
+        side = "+" if piece.centroid[perp(piece.direction)] >= offset else "-"
+        d = c.direction.value if c.direction else "-"
+        base["discriminator"] = f"{c.level}|{d}|{c.kind.value}|{side}"
         only = (
             sum(
                 1
@@ -187,7 +194,7 @@ def _cantilever(
             "diaphragms (25 ft, and 2/3 W; open front 1.0 W one story, 0.67 W more)."
         )
     return Finding(
-        **_base(c, allocation, model),
+        **base,
         clause="AWC SDPWS-2015 §4.2.5.2",
         severity=Severity.WARNING,
         title="Cantilevered diaphragm piece",

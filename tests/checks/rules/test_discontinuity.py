@@ -154,3 +154,43 @@ def test_cantilever_limits_by_hand():
     assert f.clause == "AWC SDPWS-2015 §4.2.5.2"
     # open front, one story: limit min(25 ft = 7.62 m, 1.0·W = 10 m), from memory
     assert "is within the 7.62 m limit for an open front" in f.description
+
+
+def test_cantilever_id_does_not_depend_on_the_piece_number():
+    # the same cantilever renumbered (a piece added elsewhere) keeps its finding id
+    def one(ref):
+        piece = DiaphragmPiece(
+            id=ref,
+            diaphragm="Roof/D1",
+            level="Roof",
+            direction=X,
+            polygon=box(0, 0, 10, 4),
+            weight=1.0,
+            force=1.0,
+            centroid=(5.0, 2.0),
+            supports=("L1-X-1",),
+            shares=(("L1-X-1", 1.0),),
+        )
+        fr = FlexibleResult(
+            level="Roof",
+            direction=X,
+            applied=1.0,
+            pieces=(piece,),
+            point_loads=(),
+            line_forces={},
+            pier_forces={},
+        )
+        cond = Condition(
+            kind=ConditionKind.CANTILEVER_PIECE,
+            level="Roof",
+            direction=X,
+            guids=("slab1",),
+            detail="cantilevered",
+            ref=ref,
+        )
+        alloc = allocation(
+            lines=[_line("L1-X-1", "Roof", 0.0)], flexible=[fr], conditions=[cond]
+        )
+        return check_discontinuity(alloc, config())[0].id
+
+    assert one("Roof/D1/X1") == one("Roof/D1/X3")
