@@ -6,7 +6,10 @@ import json
 import resource
 import sys
 import time
+from pathlib import Path
 
+# run as a script from any directory: the project root must be importable
+sys.path.insert(0, str(Path(__file__).resolve().parent.parent))
 
 def main(model: str, config: str, out: str) -> None:
     t0 = time.perf_counter()
