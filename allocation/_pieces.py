@@ -6,10 +6,11 @@ Y the coordinates are swapped, (u, v) = (y, x). ``u`` runs along the lines and `
 across them, which is the direction the diaphragm spans.
 
 Two cuts make the pieces. First, each line's chords (the crossings its walls cut) split
-the region. Second, where a line's chord ends at a free edge of the slab (a re-entrant
-corner, a notch) inside the u-range of a piece it touches, the piece is cut across (at
-u = that end): the part beyond has no such line at its edge. A gap in the chord at an
-interior opening (a stair) is not a free edge: the diaphragm spans around it. After
+the region. Second, where a line's support ends (at a re-entrant corner, a notch, or an
+opening it stops at) inside the u-range of a piece it touches, the piece is cut across
+(at u = that end): the part beyond has no such line at its edge. A gap in a line's
+chords at an interior opening it continues past (a stair) is not an end: the
+diaphragm spans around the opening. After
 both cuts every piece spans in v between the line below and the line above (or one,
 or none), as a simple beam (common practice).
 """
@@ -21,7 +22,7 @@ from dataclasses import dataclass
 from itertools import pairwise
 
 import shapely
-from shapely.geometry import MultiLineString, Polygon
+from shapely.geometry import LineString, MultiLineString, Polygon
 from shapely.geometry.base import BaseGeometry
 from shapely.ops import split
 
@@ -41,8 +42,8 @@ class Support:
         line: Line id.
         v: Local across-coordinate of the chords [m].
         segments: Chords as (u0, u1) [m].
-        spans: Chords of the region with holes filled that hold the segments; the
-            pieces are cut across where they end (defaults to ``segments``) [m].
+        spans: The segments with gaps at interior openings bridged; pieces are cut
+            across where they end (``segments`` when empty) [m].
     """
 
     line: str
@@ -106,13 +107,23 @@ def _contact(piece: Polygon, support: Support) -> list[tuple[float, float]]:
     return [(a, b) for a, b in merged]
 
 
+def _meets(piece: Polygon, support: Support) -> bool:
+    """The support's chords run along the piece's edge or into it (a slit)."""
+    if _contact(piece, support):
+        return True
+    return any(
+        piece.intersection(LineString([(a, support.v), (b, support.v)])).length > _EPS
+        for a, b in support.segments
+    )
+
+
 def _cut_across(piece: Polygon, supports: Sequence[Support]) -> list[Polygon]:
     u0, v0, u1, v1 = piece.bounds
     ends = sorted(
         {
             e
             for s in supports
-            if _contact(piece, s)
+            if _meets(piece, s)
             for span in (s.spans or s.segments)
             for e in span
         }
@@ -124,11 +135,20 @@ def _cut_across(piece: Polygon, supports: Sequence[Support]) -> list[Polygon]:
     return _polygons(split(piece, cuts))
 
 
+def _split_by_chords(poly: Polygon, supports: Sequence[Support]) -> list[Polygon]:
+    chords = [
+        [(a - _EPS, s.v), (b + _EPS, s.v)] for s in supports for a, b in s.segments
+    ]
+    return _polygons(split(poly, MultiLineString(chords))) if chords else [poly]
+
+
 def split_region(local: Polygon, supports: Sequence[Support]) -> list[Piece]:
     """Split one region (local frame) by its lines' chords into spanning pieces.
 
     Common practice: each piece spans as a simple beam between the lines at its
-    edges (DESIGN.md item 6).
+    edges (DESIGN.md item 6). The chords split the region; pieces are cut across
+    where a line's support ends; the chords split them again (a chord that ended at
+    an opening only separates the region once it is cut across there).
 
     Args:
         local: Region outline in the local frame, holes kept [m].
@@ -137,17 +157,14 @@ def split_region(local: Polygon, supports: Sequence[Support]) -> list[Piece]:
     Returns:
         The pieces, ordered by centroid (v, then u), with their supports.
     """
-    chords = [
-        [(a - _EPS, s.v), (b + _EPS, s.v)] for s in supports for a, b in s.segments
-    ]
-    first = _polygons(split(local, MultiLineString(chords))) if chords else [local]
     pieces = []
-    for p in first:
+    for p in _split_by_chords(local, supports):
         for q in _cut_across(p, supports):
-            touching = tuple(
-                sorted((s for s in supports if _contact(q, s)), key=lambda s: s.v)
-            )
-            pieces.append(Piece(local=q, supports=touching))
+            for r in _split_by_chords(q, supports):
+                touching = tuple(
+                    sorted((s for s in supports if _contact(r, s)), key=lambda s: s.v)
+                )
+                pieces.append(Piece(local=r, supports=touching))
     pieces.sort(
         key=lambda p: (round(p.local.centroid.y, 9), round(p.local.centroid.x, 9))
     )

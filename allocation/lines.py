@@ -45,10 +45,10 @@ class Crossing:
         offset: Perpendicular coordinate of the chord(s) [m]; the line's offset, or
             the nearest slab edge within the tolerance when the walls are just off it.
         segments: Chords as ``(start, end)`` along-line coordinates, sorted [m].
-        spans: The chords of the region with its holes filled that hold
-            ``segments``; where they end the slab has a free edge, whereas a gap
-            between segments inside a span is an opening the diaphragm spans
-            around (common practice) [m].
+        spans: ``segments`` with the gaps at interior openings bridged: one
+            (first start, last end) per chord of the hole-filled outline. A gap
+            between segments at an opening is spanned around by the diaphragm
+            (common practice); where a span ends, the line's support ends [m].
     """
 
     diaphragm: str
@@ -113,6 +113,18 @@ def _overlapping(
     return tuple((a, b) for a, b in chords if min(b, e1) - max(a, e0) > _EPS)
 
 
+def _bridged(
+    segments: tuple[tuple[float, float], ...], filled: list[tuple[float, float]]
+) -> tuple[tuple[float, float], ...]:
+    """Extent of the segments within each chord of the hole-filled outline."""
+    out = []
+    for a, b in filled:
+        inside = [(s, t) for s, t in segments if s >= a - _EPS and t <= b + _EPS]
+        if inside:
+            out.append((min(s for s, _ in inside), max(t for _, t in inside)))
+    return tuple(out)
+
+
 def line_crossing(
     line: ResistanceLine, diaphragm: Diaphragm, *, tolerance: float
 ) -> Crossing | None:
@@ -141,12 +153,7 @@ def line_crossing(
     for v in (exact, *near):
         found = _overlapping(_chords(poly, d, v), line.wall_extent)
         if found:
-            filled = _chords(Polygon(poly.exterior), d, v)
-            spans = tuple(
-                (a, b)
-                for a, b in filled
-                if any(min(b, t) > max(a, s) for s, t in found)
-            )
+            spans = _bridged(found, _chords(Polygon(poly.exterior), d, v))
             return Crossing(
                 diaphragm=diaphragm.id, offset=float(v), segments=found, spans=spans
             )

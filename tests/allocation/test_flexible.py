@@ -154,6 +154,68 @@ def test_symmetric_hole_keeps_half_and_half():
     ]  # mirror symmetry about y = 5
 
 
+def test_stair_opening_on_a_line_is_spanned_around_not_cantilevered():
+    # L plan with a 2.6 x 5.2 m stair void whose edge lies on the Y line at x = 12.
+    plan = Polygon(
+        [(0, 0), (24, 0), (24, 22), (12, 22), (12, 12), (0, 12)],
+        [[(9.4, 6.4), (12, 6.4), (12, 11.6), (9.4, 11.6)]],
+    )
+    walls = [
+        y_wall("A", 0.0, 0.0, 12.0),
+        y_wall("B", 12.0, 6.4, 22.0),
+        y_wall("C", 24.0, 0.0, 22.0),
+    ]
+    lines, _, r = _run(walls, [diaphragm(plan)], direction=Y, Fx=1000.0)
+    assert r.conditions == ()
+    # Hand, composite areas: west part 144 - 13.52 m², x̄ = (144·6 - 13.52·10.7)/130.48;
+    # east part 12 x 22 m halves; Fx shared by area 130.48 / 394.48 and 264 / 394.48.
+    a_w, a_e = 144.0 - 2.6 * 5.2, 12.0 * 22.0
+    xbar = (144.0 * 6.0 - 2.6 * 5.2 * 10.7) / a_w
+    f_w, f_e = 1000.0 * a_w / (a_w + a_e), 1000.0 * a_e / (a_w + a_e)
+    assert by_offset(lines, r.line_forces) == [
+        pytest.approx(f_w * (1 - xbar / 12.0)),
+        pytest.approx(f_w * xbar / 12.0 + f_e / 2),
+        pytest.approx(f_e / 2),
+    ]  # lever rule
+
+
+@pytest.mark.parametrize("dx", [-2e-15, 0.0, 2e-15])
+def test_round_off_in_line_offset_does_not_move_it_off_a_slab_edge(dx):
+    plan = Polygon([(0, 0), (24, 0), (24, 22), (12, 22), (12, 12), (0, 12)])
+    walls = [
+        y_wall("A", 0.0, 0.0, 12.0),
+        y_wall("B", 12.0 + dx, 12.0, 22.0),
+        y_wall("C", 24.0, 0.0, 22.0),
+    ]
+    lines, _, r = _run(walls, [diaphragm(plan)], direction=Y, Fx=1000.0)
+    assert lines[1].crossings == (("L1/D1", pytest.approx(22.0)),)
+    # Hand: west 144 m² halves, east 264 m² halves, of 408 m².
+    assert by_offset(lines, r.line_forces) == [
+        pytest.approx(500.0 * 144 / 408),
+        pytest.approx(500.0),
+        pytest.approx(500.0 * 264 / 408),
+    ]
+
+
+def test_line_stopping_at_an_opening_supports_only_its_side():
+    holed = Polygon(
+        box(0, 0, 10, 10).exterior.coords, [box(4, 4, 6, 6).exterior.coords]
+    )
+    walls = [
+        x_wall("S", 0.0, 0.0, 10.0),
+        x_wall("M", 5.0, 0.0, 3.0),
+        x_wall("N", 10.0, 0.0, 10.0),
+    ]
+    lines, _, r = _run(walls, [diaphragm(holed)], Fx=960.0)
+    # Hand, 96 m²: west strips 4 x 5 m halve (10 + 10, 10 + 10); the east part (56 m²,
+    # centroid y = 5) spans y = 0 to 10: 28 / 28. Forces x 10 N/m².
+    assert by_offset(lines, r.line_forces) == [
+        pytest.approx(380.0),
+        pytest.approx(200.0),
+        pytest.approx(380.0),
+    ]
+
+
 ELL = Polygon([(0, 0), (10, 0), (10, 5), (5, 5), (5, 10), (0, 10)])
 ELL_RECTS = [(0, 0, 10, 5), (0, 5, 5, 10)]
 
