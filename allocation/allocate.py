@@ -12,6 +12,7 @@ from __future__ import annotations
 
 from collections.abc import Sequence
 
+from allocation._transfers import stands_on
 from allocation.envelope import envelope, line_envelope
 from allocation.flexible import allocate_flexible, transfer_point_loads
 from allocation.level_forces import compute_level_forces
@@ -48,7 +49,9 @@ def _plan_extent(model: BuildingModel, level: str, piers: Sequence[Pier]):
     return (min(xs), min(ys), max(xs), max(ys))
 
 
-def _centre_of_mass_above(levels: Sequence[LevelLoad], index: int) -> tuple[float, float]:
+def _centre_of_mass_above(
+    levels: Sequence[LevelLoad], index: int
+) -> tuple[float, float]:
     """Centre of the story forces at and above level ``index`` (Fx-weighted)."""
     above = levels[index:]
     total = sum(lv.story_force for lv in above)
@@ -80,7 +83,7 @@ def _stacking_loads(
     for p in upper:
         if p.direction is not direction or p.id not in upper_forces:
             continue
-        line = _line_below(p, lower_lines, direction, tolerance)
+        line = _line_below(p, lower_lines, tolerance)
         if line is not None:
             loads.append(
                 PointLoad(
@@ -96,20 +99,9 @@ def _stacking_loads(
 
 
 def _line_below(
-    pier: Pier, lines: Sequence[ResistanceLine], direction: Direction, tolerance: float
+    pier: Pier, lines: Sequence[ResistanceLine], tolerance: float
 ) -> ResistanceLine | None:
-    axis = 1 if direction is Direction.X else 0
-    along = 0 if direction is Direction.X else 1
-    offset = pier.midpoint[axis]
-    lo = min(pier.start[along], pier.end[along])
-    hi = max(pier.start[along], pier.end[along])
-    for ln in lines:
-        if ln.direction is not direction or abs(ln.offset - offset) > tolerance:
-            continue
-        a, b = ln.wall_extent
-        if a - tolerance <= lo and hi <= b + tolerance:
-            return ln
-    return None
+    return next((ln for ln in lines if stands_on(pier, ln, tolerance=tolerance)), None)
 
 
 def allocate(
@@ -145,8 +137,11 @@ def allocate(
         level_index = model.level(lv.level).index + 1  # 1-based: "Level 2" -> "L2-X-1"
         own = [p for p in piers if p.level == lv.level]
         lines, own, found = find_lines(
-            own, model.diaphragms_of(lv.level), level=lv.level,
-            level_index=level_index, options=options,
+            own,
+            model.diaphragms_of(lv.level),
+            level=lv.level,
+            level_index=level_index,
+            options=options,
         )
         all_lines.extend(lines)
         piers_by_level[lv.level] = list(own)
@@ -155,12 +150,16 @@ def allocate(
     orphans = [p for p in piers if p.level not in known]
     piers = tuple(p for lv in levels for p in piers_by_level[lv.level])
     for p in orphans:
-        conditions.append(Condition(
-            kind=ConditionKind.WALL_OFF_DIAPHRAGM, level=p.level, direction=p.direction,
-            guids=(p.guid,),
-            detail=f"shear wall {p.guid} ({p.name!r}) supports level {p.level!r}, "
-                   "which is not a diaphragm level above the base; it takes no force",
-        ))
+        conditions.append(
+            Condition(
+                kind=ConditionKind.WALL_OFF_DIAPHRAGM,
+                level=p.level,
+                direction=p.direction,
+                guids=(p.guid,),
+                detail=f"shear wall {p.guid} ({p.name!r}) supports level {p.level!r}, "
+                "which is not a diaphragm level above the base; it takes no force",
+            )
+        )
 
     flexible: list[FlexibleResult] = []
     rigid: list[RigidResult] = []
@@ -175,31 +174,47 @@ def allocate(
             if upper_result is not None and upper_level is not None:
                 upper = piers_by_level[upper_level]
                 moving, found = transfer_point_loads(
-                    upper, upper_result.pier_forces, lines, level_below=lv.level,
-                    direction=direction, tolerance=options.line_tolerance,
+                    upper,
+                    upper_result.pier_forces,
+                    lines,
+                    level_below=lv.level,
+                    direction=direction,
+                    tolerance=options.line_tolerance,
                 )
                 stacking = _stacking_loads(
                     [p for p in upper if p.id not in {m.source_pier for m in moving}],
-                    upper_result.pier_forces, lines, level_below=lv.level,
-                    direction=direction, tolerance=options.line_tolerance,
+                    upper_result.pier_forces,
+                    lines,
+                    level_below=lv.level,
+                    direction=direction,
+                    tolerance=options.line_tolerance,
                 )
                 transfers = tuple(moving) + stacking
                 conditions.extend(found)
             result = allocate_flexible(
-                lv, model.diaphragms_of(lv.level), lines, own,
-                direction=direction, point_loads=transfers,
+                lv,
+                model.diaphragms_of(lv.level),
+                lines,
+                own,
+                direction=direction,
+                point_loads=transfers,
+                line_tolerance=options.line_tolerance,
             )
             flexible.append(result)
             upper_result, upper_level = result, lv.level
             if own:
-                rigid.extend(allocate_rigid_story(
-                    own, level=lv.level, story_shear=lv.story_shear,
-                    center_of_mass=_centre_of_mass_above(levels, i),
-                    plan_extent=_plan_extent(model, lv.level, own),
-                    direction=direction,
-                    accidental_eccentricity=options.accidental_eccentricity,
-                    amplify_torsion=options.amplify_torsion,
-                ))
+                rigid.extend(
+                    allocate_rigid_story(
+                        own,
+                        level=lv.level,
+                        story_shear=lv.story_shear,
+                        center_of_mass=_centre_of_mass_above(levels, i),
+                        plan_extent=_plan_extent(model, lv.level, own),
+                        direction=direction,
+                        accidental_eccentricity=options.accidental_eccentricity,
+                        amplify_torsion=options.amplify_torsion,
+                    )
+                )
     for r in (*flexible, *rigid):
         conditions.extend(r.conditions)
     env = envelope(flexible, rigid, method=options.diaphragm)
@@ -211,10 +226,14 @@ def allocate(
         flexible=tuple(flexible),
         rigid=tuple(rigid),
         envelope=env,
-        line_envelope=line_envelope(all_lines, flexible, rigid, method=options.diaphragm),
+        line_envelope=line_envelope(
+            all_lines, flexible, rigid, method=options.diaphragm
+        ),
         conditions=tuple(_dedupe(conditions)),
-        graphs={d: build_load_path([f for f in flexible if f.direction is d], piers)
-                for d in (Direction.X, Direction.Y)},
+        graphs={
+            d: build_load_path([f for f in flexible if f.direction is d], piers)
+            for d in (Direction.X, Direction.Y)
+        },
     )
 
 

@@ -104,17 +104,28 @@ class SeismicParameters:
         for name in ("SDS", "SD1", "S1", "TL", "R", "Ie", "Cd", "omega0", "Ct", "x"):
             v = getattr(self, name)
             _require(math.isfinite(v), f"seismic.{name} = {v} is not a finite number")
-        _require(self.SDS >= 0 and self.SD1 >= 0 and self.S1 >= 0,
-                 f"seismic: SDS, SD1, S1 must be >= 0 g (got {self.SDS}, {self.SD1}, {self.S1})")
-        _require(self.R > 0 and self.Ie > 0, f"seismic: R = {self.R} and Ie = {self.Ie} must be > 0")
-        _require(self.TL > 0 and self.Ct > 0 and self.x > 0,
-                 f"seismic: TL, Ct and x must be > 0 (got {self.TL}, {self.Ct}, {self.x})")
+        _require(
+            self.SDS >= 0 and self.SD1 >= 0 and self.S1 >= 0,
+            f"seismic: SDS, SD1, S1 must be >= 0 g (got {self.SDS}, {self.SD1}, {self.S1})",
+        )
+        _require(
+            self.R > 0 and self.Ie > 0,
+            f"seismic: R = {self.R} and Ie = {self.Ie} must be > 0",
+        )
+        _require(
+            self.TL > 0 and self.Ct > 0 and self.x > 0,
+            f"seismic: TL, Ct and x must be > 0 (got {self.TL}, {self.Ct}, {self.x})",
+        )
         if self.period is not None:
-            _require(math.isfinite(self.period) and self.period > 0,
-                     f"seismic.period = {self.period} s must be > 0")
+            _require(
+                math.isfinite(self.period) and self.period > 0,
+                f"seismic.period = {self.period} s must be > 0",
+            )
         for name, force in self.level_forces:
-            _require(math.isfinite(force) and force >= 0,
-                     f"seismic.level_forces.{name} = {force} N must be >= 0")
+            _require(
+                math.isfinite(force) and force >= 0,
+                f"seismic.level_forces.{name} = {force} N must be >= 0",
+            )
 
 
 @dataclass(frozen=True, slots=True, kw_only=True)
@@ -139,7 +150,9 @@ class DeadLoads:
             v = getattr(self, name)
             _require(math.isfinite(v) and v >= 0, f"loads.{name} = {v} Pa must be >= 0")
         for name, w in self.extra:
-            _require(math.isfinite(w) and w >= 0, f"loads.extra.{name} = {w} N must be >= 0")
+            _require(
+                math.isfinite(w) and w >= 0, f"loads.extra.{name} = {w} N must be >= 0"
+            )
 
 
 @dataclass(frozen=True, slots=True, kw_only=True)
@@ -197,13 +210,19 @@ class AnalysisOptions:
 
     def __post_init__(self) -> None:
         e = self.accidental_eccentricity
-        _require(math.isfinite(e) and 0 <= e < 0.5,
-                 f"analysis.accidental_eccentricity = {e} must be in [0, 0.5)")
-        _require(math.isfinite(self.line_tolerance) and self.line_tolerance > 0,
-                 f"analysis.line_tolerance = {self.line_tolerance} m must be > 0")
+        _require(
+            math.isfinite(e) and 0 <= e < 0.5,
+            f"analysis.accidental_eccentricity = {e} must be in [0, 0.5)",
+        )
+        _require(
+            math.isfinite(self.line_tolerance) and self.line_tolerance > 0,
+            f"analysis.line_tolerance = {self.line_tolerance} m must be > 0",
+        )
         a = self.angle_tolerance
-        _require(math.isfinite(a) and 0 < a < math.pi / 4,
-                 f"analysis.angle_tolerance = {math.degrees(a):.3g} deg must be in (0, 45)")
+        _require(
+            math.isfinite(a) and 0 < a < math.pi / 4,
+            f"analysis.angle_tolerance = {math.degrees(a):.3g} deg must be in (0, 45)",
+        )
 
     def assembly(self, name: str) -> AssemblyProperties | None:
         """Properties of the named assembly, or None."""

@@ -30,9 +30,9 @@ __all__ = [
     "LoadCase",
     "MassItem",
     "Method",
+    "Pier",
     "PierEnvelope",
     "PierId",
-    "Pier",
     "PointLoad",
     "ResistanceLine",
     "RigidResult",
@@ -58,13 +58,17 @@ class ConditionKind(StrEnum):
     NO_LINE = "no_line"  # a level and direction with no line of resistance
     UNSUPPORTED_PIECE = "unsupported_piece"  # diaphragm piece touching no line
     CANTILEVER_PIECE = "cantilever_piece"  # diaphragm piece touching one line
-    NON_STACKING_WALL = "non_stacking_wall"  # upper wall with no line below (point load)
+    NON_STACKING_WALL = (
+        "non_stacking_wall"  # upper wall with no line below (point load)
+    )
     SKEWED_WALL = "skewed_wall"  # shear wall beyond the angle tolerance of X and Y
     NO_SHEAR_WALLS = "no_shear_walls"  # a story with no shear wall at all
     TORSIONAL_INSTABILITY = "torsional_instability"  # rigid: no torsional stiffness
     WALL_OFF_DIAPHRAGM = "wall_off_diaphragm"  # shear wall not under any diaphragm
     NO_PIER = "no_pier"  # shear wall whose openings leave no full-height pier
-    STIFFNESS_FALLBACK = "stiffness_fallback"  # assembly stiffness inputs missing: length used
+    STIFFNESS_FALLBACK = (
+        "stiffness_fallback"  # assembly stiffness inputs missing: length used
+    )
 
 
 @dataclass(frozen=True, slots=True, kw_only=True)
@@ -242,7 +246,10 @@ class Pier:
     @property
     def midpoint(self) -> tuple[float, float]:
         """Plan mid-point [m]."""
-        return ((self.start[0] + self.end[0]) / 2.0, (self.start[1] + self.end[1]) / 2.0)
+        return (
+            (self.start[0] + self.end[0]) / 2.0,
+            (self.start[1] + self.end[1]) / 2.0,
+        )
 
     @property
     def aspect_ratio(self) -> float:

@@ -22,8 +22,9 @@ def main(model: str, mode: str) -> None:
         s.set("use-world-coords", True)
         s.set("disable-opening-subtractions", True)
         elements = f.by_type("IfcWall") + f.by_type("IfcSlab")
-        it = ifcopenshell.geom.iterator(s, f, 1, include=elements,
-                                        geometry_library="manifold")
+        it = ifcopenshell.geom.iterator(
+            s, f, 1, include=elements, geometry_library="manifold"
+        )
         if it.initialize():
             while True:
                 it.get()
@@ -31,9 +32,16 @@ def main(model: str, mode: str) -> None:
                 if not it.next():
                     break
     t3 = time.perf_counter()
-    json.dump({"import": t1 - t0, "open": t2 - t1, "geometry": t3 - t2, "shapes": n,
-               "maxrss_mb": resource.getrusage(resource.RUSAGE_SELF).ru_maxrss / 1024},
-              sys.stdout)
+    json.dump(
+        {
+            "import": t1 - t0,
+            "open": t2 - t1,
+            "geometry": t3 - t2,
+            "shapes": n,
+            "maxrss_mb": resource.getrusage(resource.RUSAGE_SELF).ru_maxrss / 1024,
+        },
+        sys.stdout,
+    )
 
 
 if __name__ == "__main__":

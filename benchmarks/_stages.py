@@ -11,6 +11,7 @@ from pathlib import Path
 # run as a script from any directory: the project root must be importable
 sys.path.insert(0, str(Path(__file__).resolve().parent.parent))
 
+
 def main(model: str, config: str, out: str) -> None:
     t0 = time.perf_counter()
     from allocation.allocate import allocate
@@ -28,12 +29,20 @@ def main(model: str, config: str, out: str) -> None:
     t_check = time.perf_counter()
     write_outputs(CheckRun(model=m, config=cfg, allocation=a, checks=c), out)
     t_write = time.perf_counter()
-    json.dump({
-        "import": t_import - t0, "read": t_read - t_import, "allocate": t_alloc - t_read,
-        "check": t_check - t_alloc, "write": t_write - t_check,
-        "walls": len(m.walls), "piers": len(a.piers), "findings": len(c.findings),
-        "maxrss_mb": resource.getrusage(resource.RUSAGE_SELF).ru_maxrss / 1024,
-    }, sys.stdout)
+    json.dump(
+        {
+            "import": t_import - t0,
+            "read": t_read - t_import,
+            "allocate": t_alloc - t_read,
+            "check": t_check - t_alloc,
+            "write": t_write - t_check,
+            "walls": len(m.walls),
+            "piers": len(a.piers),
+            "findings": len(c.findings),
+            "maxrss_mb": resource.getrusage(resource.RUSAGE_SELF).ru_maxrss / 1024,
+        },
+        sys.stdout,
+    )
 
 
 if __name__ == "__main__":

@@ -24,7 +24,9 @@ BAY = 6.0
 def _guid(*parts: object) -> str:
     import ifcopenshell.guid
 
-    return ifcopenshell.guid.compress(uuid.uuid5(uuid.NAMESPACE_URL, "/".join(map(str, parts))).hex)
+    return ifcopenshell.guid.compress(
+        uuid.uuid5(uuid.NAMESPACE_URL, "/".join(map(str, parts))).hex
+    )
 
 
 def generate(storeys: int, walls_per_storey: int, path: Path) -> Path:
@@ -34,22 +36,46 @@ def generate(storeys: int, walls_per_storey: int, path: Path) -> Path:
 
     run = ifcopenshell.api.run
     f = run("project.create_file", version="IFC4")
-    project = run("root.create_entity", f, ifc_class="IfcProject", name="Benchmark tower")
+    project = run(
+        "root.create_entity", f, ifc_class="IfcProject", name="Benchmark tower"
+    )
     run("unit.assign_unit", f)
     ctx = run("context.add_context", f, context_type="Model")
-    body = run("context.add_context", f, context_type="Model", context_identifier="Body",
-               target_view="MODEL_VIEW", parent=ctx)
-    axis_ctx = run("context.add_context", f, context_type="Model", context_identifier="Axis",
-                   target_view="GRAPH_VIEW", parent=ctx)
+    body = run(
+        "context.add_context",
+        f,
+        context_type="Model",
+        context_identifier="Body",
+        target_view="MODEL_VIEW",
+        parent=ctx,
+    )
+    axis_ctx = run(
+        "context.add_context",
+        f,
+        context_type="Model",
+        context_identifier="Axis",
+        target_view="GRAPH_VIEW",
+        parent=ctx,
+    )
     site = run("root.create_entity", f, ifc_class="IfcSite", name="Site")
     building = run("root.create_entity", f, ifc_class="IfcBuilding", name="Tower")
     run("aggregate.assign_object", f, relating_object=project, products=[site])
     run("aggregate.assign_object", f, relating_object=site, products=[building])
 
-    shear_type = run("root.create_entity", f, ifc_class="IfcWallType", name="BW-SHEAR",
-                     predefined_type="SHEAR")
-    part_type = run("root.create_entity", f, ifc_class="IfcWallType", name="BW-PART",
-                    predefined_type="PARTITIONING")
+    shear_type = run(
+        "root.create_entity",
+        f,
+        ifc_class="IfcWallType",
+        name="BW-SHEAR",
+        predefined_type="SHEAR",
+    )
+    part_type = run(
+        "root.create_entity",
+        f,
+        ifc_class="IfcWallType",
+        name="BW-PART",
+        predefined_type="PARTITIONING",
+    )
     # n lines each way; each line has `segments` walls; the rest are partitions
     lines = max(2, int(math.sqrt(walls_per_storey / 2.5)))
     segs = max(1, walls_per_storey // (4 * lines))
@@ -57,11 +83,20 @@ def generate(storeys: int, walls_per_storey: int, path: Path) -> Path:
     seg_len = width / segs
     for s in range(storeys + 1):
         z = s * STOREY_HEIGHT
-        storey = run("root.create_entity", f, ifc_class="IfcBuildingStorey", name=f"Level {s + 1}")
+        storey = run(
+            "root.create_entity",
+            f,
+            ifc_class="IfcBuildingStorey",
+            name=f"Level {s + 1}",
+        )
         storey.GlobalId = _guid("storey", s)
         storey.Elevation = z
-        run("geometry.edit_object_placement", f, product=storey,
-            matrix=_matrix(0.0, 0.0, z, 0.0))
+        run(
+            "geometry.edit_object_placement",
+            f,
+            product=storey,
+            matrix=_matrix(0.0, 0.0, z, 0.0),
+        )
         run("aggregate.assign_object", f, relating_object=building, products=[storey])
         if s > 0:
             _slab(f, run, body, storey, s, width, depth, z)
@@ -75,23 +110,51 @@ def generate(storeys: int, walls_per_storey: int, path: Path) -> Path:
                     if count >= walls_per_storey:
                         break
                     a = k * seg_len
-                    x, y, ang = (a, i * BAY, 0.0) if direction == 0 else (i * BAY, a, 90.0)
-                    wall = _wall(f, run, body, axis_ctx, (s, direction, i, k), x, y, z,
-                                 ang, seg_len * 0.95)
+                    x, y, ang = (
+                        (a, i * BAY, 0.0) if direction == 0 else (i * BAY, a, 90.0)
+                    )
+                    wall = _wall(
+                        f,
+                        run,
+                        body,
+                        axis_ctx,
+                        (s, direction, i, k),
+                        x,
+                        y,
+                        z,
+                        ang,
+                        seg_len * 0.95,
+                    )
                     walls.append(wall)
                     if count % 5 == 0:
-                        _opening(f, run, body, wall, seg_len * 0.95, (s, direction, i, k))
+                        _opening(
+                            f, run, body, wall, seg_len * 0.95, (s, direction, i, k)
+                        )
                     count += 1
         while count < walls_per_storey:  # partitions in the bays
             i, j = count % lines, (count // lines) % lines
-            wall = _wall(f, run, body, axis_ctx, (s, "p", count), i * BAY + 1.0,
-                         j * BAY + BAY / 2, z, 0.0, 3.0)
+            wall = _wall(
+                f,
+                run,
+                body,
+                axis_ctx,
+                (s, "p", count),
+                i * BAY + 1.0,
+                j * BAY + BAY / 2,
+                z,
+                0.0,
+                3.0,
+            )
             walls.append(wall)
             count += 1
         shear = [w for w in walls if not w.Name.startswith("P")]
         run("type.assign_type", f, related_objects=shear, relating_type=shear_type)
-        run("type.assign_type", f, related_objects=[w for w in walls if w.Name.startswith("P")],
-            relating_type=part_type)
+        run(
+            "type.assign_type",
+            f,
+            related_objects=[w for w in walls if w.Name.startswith("P")],
+            relating_type=part_type,
+        )
         run("spatial.assign_container", f, relating_structure=storey, products=walls)
     f.write(str(path))
     return path
@@ -106,15 +169,34 @@ def _matrix(x: float, y: float, z: float, angle_deg: float) -> np.ndarray:
 
 
 def _wall(f, run, body, axis_ctx, key, x, y, z, angle, length):
-    wall = run("root.create_entity", f, ifc_class="IfcWall",
-               name=("P" if "p" in key else "W") + "-" + "-".join(map(str, key)))
+    wall = run(
+        "root.create_entity",
+        f,
+        ifc_class="IfcWall",
+        name=("P" if "p" in key else "W") + "-" + "-".join(map(str, key)),
+    )
     wall.GlobalId = _guid("wall", *key)
-    run("geometry.edit_object_placement", f, product=wall, matrix=_matrix(x, y, z, angle))
-    rep = run("geometry.add_wall_representation", f, context=body, length=length,
-              height=STOREY_HEIGHT - 0.3, thickness=0.2)
+    run(
+        "geometry.edit_object_placement",
+        f,
+        product=wall,
+        matrix=_matrix(x, y, z, angle),
+    )
+    rep = run(
+        "geometry.add_wall_representation",
+        f,
+        context=body,
+        length=length,
+        height=STOREY_HEIGHT - 0.3,
+        thickness=0.2,
+    )
     run("geometry.assign_representation", f, product=wall, representation=rep)
-    axis = run("geometry.add_axis_representation", f, context=axis_ctx,
-               axis=[(0.0, 0.0), (length, 0.0)])
+    axis = run(
+        "geometry.add_axis_representation",
+        f,
+        context=axis_ctx,
+        axis=[(0.0, 0.0), (length, 0.0)],
+    )
     run("geometry.assign_representation", f, product=wall, representation=axis)
     return wall
 
@@ -126,8 +208,14 @@ def _opening(f, run, body, wall, length, key):
     m = _placement(wall).copy()
     m[:3, 3] += m[:3, 0] * (length / 2 - w / 2) - m[:3, 1] * 0.2
     run("geometry.edit_object_placement", f, product=op, matrix=m)
-    rep = run("geometry.add_wall_representation", f, context=body, length=w, height=2.1,
-              thickness=0.6)
+    rep = run(
+        "geometry.add_wall_representation",
+        f,
+        context=body,
+        length=w,
+        height=2.1,
+        thickness=0.6,
+    )
     run("geometry.assign_representation", f, product=op, representation=rep)
     run("feature.add_feature", f, feature=op, element=wall)
 
@@ -139,20 +227,40 @@ def _placement(element) -> np.ndarray:
 
 
 def _slab(f, run, body, storey, s, width, depth, z):
-    slab = run("root.create_entity", f, ifc_class="IfcSlab", name=f"Floor {s}",
-               predefined_type="FLOOR")
+    slab = run(
+        "root.create_entity",
+        f,
+        ifc_class="IfcSlab",
+        name=f"Floor {s}",
+        predefined_type="FLOOR",
+    )
     slab.GlobalId = _guid("slab", s)
-    run("geometry.edit_object_placement", f, product=slab, matrix=_matrix(0.0, 0.0, z, 0.0))
+    run(
+        "geometry.edit_object_placement",
+        f,
+        product=slab,
+        matrix=_matrix(0.0, 0.0, z, 0.0),
+    )
     outer = [(0.0, 0.0), (width, 0.0), (width, depth), (0.0, depth), (0.0, 0.0)]
-    rep = run("geometry.add_slab_representation", f, context=body, depth=0.25,
-              polyline=outer)
+    rep = run(
+        "geometry.add_slab_representation", f, context=body, depth=0.25, polyline=outer
+    )
     run("geometry.assign_representation", f, product=slab, representation=rep)
     hole = run("root.create_entity", f, ifc_class="IfcOpeningElement", name="stair")
     hole.GlobalId = _guid("stair", s)
-    run("geometry.edit_object_placement", f, product=hole,
-        matrix=_matrix(BAY * 0.5, BAY * 0.5, z - 0.5, 0.0))
-    hrep = run("geometry.add_slab_representation", f, context=body, depth=1.0,
-               polyline=[(0, 0), (2.5, 0), (2.5, 5.0), (0, 5.0), (0, 0)])
+    run(
+        "geometry.edit_object_placement",
+        f,
+        product=hole,
+        matrix=_matrix(BAY * 0.5, BAY * 0.5, z - 0.5, 0.0),
+    )
+    hrep = run(
+        "geometry.add_slab_representation",
+        f,
+        context=body,
+        depth=1.0,
+        polyline=[(0, 0), (2.5, 0), (2.5, 5.0), (0, 5.0), (0, 0)],
+    )
     run("geometry.assign_representation", f, product=hole, representation=hrep)
     run("feature.add_feature", f, feature=hole, element=slab)
     run("spatial.assign_container", f, relating_structure=storey, products=[slab])

@@ -37,8 +37,9 @@ DEFAULT_SIZES = ("5x50", "10x100", "20x200", "40x250")
 
 def _child(args: list[str]) -> tuple[float, dict]:
     t = time.perf_counter()
-    out = subprocess.run([sys.executable, *args], capture_output=True, text=True, cwd=ROOT,
-                         check=False)
+    out = subprocess.run(
+        [sys.executable, *args], capture_output=True, text=True, cwd=ROOT, check=False
+    )
     elapsed = time.perf_counter() - t
     if out.returncode not in (0, 1):
         msg = f"{' '.join(args)} failed ({out.returncode}): {out.stderr.strip()[-400:]}"
@@ -69,7 +70,11 @@ def _slope(xs: list[float], ys: list[float]) -> float:
     lx, ly = [math.log(x) for x in xs], [math.log(max(y, 1e-9)) for y in ys]
     mx, my = sum(lx) / len(lx), sum(ly) / len(ly)
     den = sum((a - mx) ** 2 for a in lx)
-    return sum((a - mx) * (b - my) for a, b in zip(lx, ly, strict=True)) / den if den else 0.0
+    return (
+        sum((a - mx) * (b - my) for a, b in zip(lx, ly, strict=True)) / den
+        if den
+        else 0.0
+    )
 
 
 def main() -> None:
@@ -82,13 +87,26 @@ def main() -> None:
     rows = []
     for size in a.sizes:
         path, walls = _model(size)
-        t_open, open_info = _best([str(HERE / "_floor.py"), str(path), "open"], a.repeat)
+        t_open, open_info = _best(
+            [str(HERE / "_floor.py"), str(path), "open"], a.repeat
+        )
         t_floor, floor = _best([str(HERE / "_floor.py"), str(path), "floor"], a.repeat)
         with tempfile.TemporaryDirectory() as out:
-            t_check, stages = _best([str(HERE / "_stages.py"), str(path), str(config), out],
-                                    a.repeat)
-        rows.append((size, walls, path.stat().st_size / 1e6, open_info, t_floor, floor,
-                     t_check, stages))
+            t_check, stages = _best(
+                [str(HERE / "_stages.py"), str(path), str(config), out], a.repeat
+            )
+        rows.append(
+            (
+                size,
+                walls,
+                path.stat().st_size / 1e6,
+                open_info,
+                t_floor,
+                floor,
+                t_check,
+                stages,
+            )
+        )
         share = (stages["allocate"] + stages["check"]) / t_check
         print(
             f"{size:>7} {walls:>6} walls {path.stat().st_size / 1e6:6.1f} MB | open "
@@ -113,8 +131,10 @@ def main() -> None:
         )
     last = rows[-1]
     ok = last[6] <= 1.5 * last[4]
-    print(f"largest model: check/floor = {last[6] / last[4]:.2f} (target <= 1.5): "
-          f"{'met' if ok else 'missed'}")
+    print(
+        f"largest model: check/floor = {last[6] / last[4]:.2f} (target <= 1.5): "
+        f"{'met' if ok else 'missed'}"
+    )
 
 
 if __name__ == "__main__":

@@ -60,7 +60,12 @@ def inspect_document(
                 "is_diaphragm_level": lv.is_diaphragm_level,
                 "diaphragm_area": sum(d.area for d in diaphragms),
                 "diaphragms": [
-                    {"id": d.id, "area": d.area, "kind": d.kind, "slabs": list(d.slab_guids)}
+                    {
+                        "id": d.id,
+                        "area": d.area,
+                        "kind": d.kind,
+                        "slabs": list(d.slab_guids),
+                    }
                     for d in diaphragms
                 ],
                 "slab_count": sum(len(d.slab_guids) for d in diaphragms),

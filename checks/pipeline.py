@@ -18,6 +18,7 @@ from collections.abc import Callable
 from dataclasses import dataclass
 from pathlib import Path
 
+from allocation.errors import AllocationError
 from allocation.results import Allocation
 from checks.errors import ConfigError, OutputError
 from checks.findings import Finding, Severity
@@ -71,7 +72,7 @@ def _config(config: ProjectConfig | str | os.PathLike) -> ProjectConfig:
 
 
 def _check_storey_names(model: BuildingModel, config: ProjectConfig) -> None:
-    names = {lv.name for lv in model.levels}
+    names = [lv.name for lv in model.levels]  # elevation order: a stable message
     keys = [
         ("seismic.level_forces", [n for n, _ in config.seismic.level_forces]),
         ("loads.extra", [n for n, _ in config.loads.extra]),
@@ -92,15 +93,26 @@ def load_model(
     model_path: str | os.PathLike, config: ProjectConfig, progress: Progress | None = None
 ) -> BuildingModel:
     """Read the IFC file with the config's shear-wall rules and diaphragm levels."""
+    from ifc_bridge.errors import IfcContentError
     from ifc_bridge.read_model import read_model
 
-    return read_model(
-        model_path,
-        rules=config.match_rules,
-        use_predefined_type=config.use_predefined_type,
-        diaphragm_storeys=config.analysis.diaphragm_levels,
-        progress=progress,
-    )
+    def read(storeys: tuple[str, ...], report: Progress | None) -> BuildingModel:
+        return read_model(
+            model_path,
+            rules=config.match_rules,
+            use_predefined_type=config.use_predefined_type,
+            diaphragm_storeys=storeys,
+            progress=report,
+        )
+
+    try:
+        return read(config.analysis.diaphragm_levels, progress)
+    except IfcContentError:
+        if not config.analysis.diaphragm_levels:
+            raise
+        # name the config file and key when [levels].diaphragms names a lost storey
+        _check_storey_names(read((), None), config)
+        raise
 
 
 def check_model(
@@ -126,24 +138,56 @@ def check_model(
     """
     from allocation.allocate import allocate
     from checks.rules.run_rules import run_checks
+    from ifc_bridge.open_file import open_ifc
 
     cfg = _config(config)
+    ifc = open_ifc(model_path)
+    _check_unique_guids(ifc, str(model_path))
     model = load_model(model_path, cfg, progress)
     _check_storey_names(model, cfg)
-    allocation = allocate(model, cfg.seismic, cfg.loads, cfg.analysis)
+    try:
+        allocation = allocate(model, cfg.seismic, cfg.loads, cfg.analysis)
+    except AllocationError as exc:
+        if model.source in str(exc):
+            raise
+        msg = f"{model.source}: {exc}"
+        raise AllocationError(msg) from exc
     checks = run_checks(model, allocation, cfg)
     return CheckRun(
         model=model, config=cfg, allocation=allocation, checks=checks,
-        requirement_findings=tuple(_requirements(model_path)),
+        requirement_findings=tuple(_requirements(ifc, model_path)),
     )
 
 
-def _requirements(model_path: str | os.PathLike) -> list[Finding]:
+def _check_unique_guids(ifc, source: str) -> None:
+    """Refuse a file in which two products share a GlobalId.
+
+    ISO 16739 (IFC): ``IfcRoot.GlobalId`` is unique. Every result, finding and BCF
+    viewpoint is keyed by it, so a duplicate would merge two walls' forces silently.
+
+    Raises:
+        IfcContentError: Names the GlobalId and the elements that share it.
+    """
+    from ifc_bridge.errors import IfcContentError
+
+    seen: dict[str, list] = {}
+    for e in ifc.by_type("IfcProduct"):
+        seen.setdefault(e.GlobalId, []).append(e)
+    for guid, elements in seen.items():
+        if len(elements) > 1:
+            who = ", ".join(f"#{e.id()} {e.is_a()} {e.Name or ''!r}" for e in elements)
+            msg = (
+                f"{source}: GlobalId {guid} is shared by {len(elements)} elements "
+                f"({who}); give each its own GlobalId (re-export the model)"
+            )
+            raise IfcContentError(msg)
+
+
+def _requirements(ifc, model_path: str | os.PathLike) -> list[Finding]:
     """The model checked against the IDS of :mod:`checks.requirements`."""
     from checks.requirements import requirement_findings
-    from ifc_bridge.open_file import open_ifc
 
-    return requirement_findings(open_ifc(model_path), source=str(model_path))
+    return requirement_findings(ifc, source=str(model_path))
 
 
 def write_outputs(

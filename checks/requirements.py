@@ -37,36 +37,66 @@ def build_requirements():
     )
 
     def spec(identifier: str, name: str, description: str, **kw) -> ids.Specification:
-        s = ids.Specification(name=name, ifcVersion=_VERSIONS, identifier=identifier,
-                              description=description, **kw)
+        s = ids.Specification(
+            name=name,
+            ifcVersion=_VERSIONS,
+            identifier=identifier,
+            description=description,
+            **kw,
+        )
         doc.specifications.append(s)
         return s
 
-    s = spec("SL-01", "Storeys have an elevation",
-             "Each IfcBuildingStorey gives its Elevation; levels are sorted by it.")
+    s = spec(
+        "SL-01",
+        "Storeys have an elevation",
+        "Each IfcBuildingStorey gives its Elevation; levels are sorted by it.",
+    )
     s.applicability.append(ids.Entity(name="IFCBUILDINGSTOREY"))
     s.requirements.append(ids.Attribute(name="Elevation", cardinality="required"))
 
-    s = spec("SL-02", "Slabs say whether they are floor, roof or base slab",
-             "PredefinedType (on the slab or its type) FLOOR, ROOF, BASESLAB or LANDING.")
+    s = spec(
+        "SL-02",
+        "Slabs say whether they are floor, roof or base slab",
+        "PredefinedType (on the slab or its type) FLOOR, ROOF, BASESLAB or LANDING.",
+    )
     s.applicability.append(ids.Entity(name="IFCSLAB"))
-    s.requirements.append(ids.Entity(name="IFCSLAB", predefinedType=Restriction(
-        {"enumeration": ["FLOOR", "ROOF", "BASESLAB", "LANDING"]})))
+    s.requirements.append(
+        ids.Entity(
+            name="IFCSLAB",
+            predefinedType=Restriction(
+                {"enumeration": ["FLOOR", "ROOF", "BASESLAB", "LANDING"]}
+            ),
+        )
+    )
 
-    s = spec("SL-03", "Walls stand in a storey",
-             "Each wall is contained in an IfcBuildingStorey.")
+    s = spec(
+        "SL-03",
+        "Walls stand in a storey",
+        "Each wall is contained in an IfcBuildingStorey.",
+    )
     s.applicability.append(ids.Entity(name=walls))
-    s.requirements.append(ids.PartOf(name="IFCBUILDINGSTOREY",
-                                     relation="IFCRELCONTAINEDINSPATIALSTRUCTURE"))
+    s.requirements.append(
+        ids.PartOf(
+            name="IFCBUILDINGSTOREY", relation="IFCRELCONTAINEDINSPATIALSTRUCTURE"
+        )
+    )
 
-    s = spec("SL-04", "Walls have a material",
-             "A material (layer set) lets assemblies be matched and weights computed.")
+    s = spec(
+        "SL-04",
+        "Walls have a material",
+        "A material (layer set) lets assemblies be matched and weights computed.",
+    )
     s.applicability.append(ids.Entity(name=walls))
     s.requirements.append(ids.Material(cardinality="required"))
 
-    s = spec("SL-05", "Shear walls are identified",
-             "At least one wall has PredefinedType SHEAR (on the wall or its type).",
-             minOccurs=1, maxOccurs="unbounded")
+    s = spec(
+        "SL-05",
+        "Shear walls are identified",
+        "At least one wall has PredefinedType SHEAR (on the wall or its type).",
+        minOccurs=1,
+        maxOccurs="unbounded",
+    )
     s.applicability.append(ids.Entity(name="IFCWALL", predefinedType="SHEAR"))
     s.requirements.append(ids.Material(cardinality="required"))
     return doc
@@ -107,24 +137,34 @@ def requirement_findings(ifc_file, *, source: str) -> list[Finding]:
     for s in doc.specifications:
         if s.status is not False:
             continue
-        failed = sorted({e.GlobalId for e in s.failed_entities if hasattr(e, "GlobalId")})
-        reasons = sorted({str(f.get("reason", "")) for r in s.requirements
-                          for f in getattr(r, "failures", []) if f.get("reason")})
+        failed = sorted(
+            {e.GlobalId for e in s.failed_entities if hasattr(e, "GlobalId")}
+        )
+        reasons = sorted(
+            {
+                str(f.get("reason", ""))
+                for r in s.requirements
+                for f in getattr(r, "failures", [])
+                if f.get("reason")
+            }
+        )
         what = f"{len(failed)} element(s) fail" if failed else "no applicable element"
-        out.append(Finding(
-            rule="model_requirements",
-            clause=f"{_CLAUSE} {s.identifier}",
-            severity=Severity.WARNING,
-            level="",
-            direction=None,
-            guids=tuple(failed),
-            title=f"Model requirement not met: {s.name}",
-            description=(
-                f"{source}: {s.description} {what}"
-                + (f" ({'; '.join(reasons[:3])})" if reasons else "")
-                + ". Ask the model author to add it; shearline falls back to geometry "
-                "and the config where it can."
-            ),
-            discriminator=s.identifier or s.name,
-        ))
+        out.append(
+            Finding(
+                rule="model_requirements",
+                clause=f"{_CLAUSE} {s.identifier}",
+                severity=Severity.WARNING,
+                level="",
+                direction=None,
+                guids=tuple(failed),
+                title=f"Model requirement not met: {s.name}",
+                description=(
+                    f"{source}: {s.description} {what}"
+                    + (f" ({'; '.join(reasons[:3])})" if reasons else "")
+                    + ". Ask the model author to add it; shearline falls back to geometry "
+                    "and the config where it can."
+                ),
+                discriminator=s.identifier or s.name,
+            )
+        )
     return out

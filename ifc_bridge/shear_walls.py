@@ -65,7 +65,9 @@ class MatchRule:
             value = wall.property_value(self.property_name)
             if value is None:
                 return False
-            if self.property_value is not None and not _glob(value, self.property_value):
+            if self.property_value is not None and not _glob(
+                value, self.property_value
+            ):
                 return False
         return True
 

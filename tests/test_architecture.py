@@ -43,6 +43,10 @@ def test_model_and_allocation_import_without_ifcopenshell():  # STYLE.md §2.1
         "allocation.parameters; print('ifcopenshell' in sys.modules)"
     )
     out = subprocess.run(
-        [sys.executable, "-c", code], cwd=ROOT, capture_output=True, text=True, check=True
+        [sys.executable, "-c", code],
+        cwd=ROOT,
+        capture_output=True,
+        text=True,
+        check=True,
     )
     assert out.stdout.strip() == "False"

@@ -31,16 +31,33 @@ def run():
 @pytest.fixture(scope="module")
 def out_dir(tmp_path_factory):
     out = tmp_path_factory.mktemp("demo-out")
-    code = main(["check", str(IFC), "--config", str(CONFIG), "--out", str(out),
-                 "--annotate", "-q"])
+    code = main(
+        [
+            "check",
+            str(IFC),
+            "--config",
+            str(CONFIG),
+            "--out",
+            str(out),
+            "--annotate",
+            "-q",
+        ]
+    )
     assert code == 1  # the demo is designed to have error findings (overstressed wall)
     return out
 
 
 def test_every_output_is_written(out_dir):
     names = {p.name for p in out_dir.iterdir()}
-    assert {"results.json", "findings.json", "findings.bcf", "report.html", "walls.csv",
-            "lines.csv", "demo_building.shearline.ifc"} <= names
+    assert {
+        "results.json",
+        "findings.json",
+        "findings.bcf",
+        "report.html",
+        "walls.csv",
+        "lines.csv",
+        "demo_building.shearline.ifc",
+    } <= names
 
 
 def test_results_json_lists_every_shear_wall(out_dir, run):
@@ -56,13 +73,19 @@ def test_results_json_lists_every_shear_wall(out_dir, run):
 @pytest.mark.parametrize("direction", [Direction.X, Direction.Y])
 def test_story_shear_equals_sum_of_wall_forces(run, direction):  # statics: ΣV = Vx
     for lv in run.allocation.levels:
-        flex = next(f for f in run.allocation.flexible
-                    if f.level == lv.level and f.direction is direction)
+        flex = next(
+            f
+            for f in run.allocation.flexible
+            if f.level == lv.level and f.direction is direction
+        )
         assert sum(flex.pier_forces.values()) == pytest.approx(lv.story_shear, rel=1e-9)
         for r in run.allocation.rigid:
             if r.level == lv.level and r.case.direction is direction:
-                along = sum(v for k, v in r.pier_forces.items()
-                            if _pier(run, k).direction is direction)
+                along = sum(
+                    v
+                    for k, v in r.pier_forces.items()
+                    if _pier(run, k).direction is direction
+                )
                 assert abs(along) == pytest.approx(lv.story_shear, rel=1e-9)
 
 
@@ -75,10 +98,12 @@ def test_story_forces_add_up_to_base_shear(run):  # ASCE 7-16 Eq. 12.8-13
     assert total == pytest.approx(run.allocation.seismic.V, rel=1e-9)
 
 
-def test_feet_ifc2x3_copy_gives_the_same_forces(run):  # same building, other units/schema
+def test_feet_ifc2x3_copy_gives_the_same_forces(
+    run,
+):  # same building, other units/schema
     ft = check_model(IFC_FT, CONFIG)
     assert ft.model.schema == "IFC2X3"
-    assert ft.allocation.seismic.V == pytest.approx(run.allocation.seismic.V, rel=1e-6)
+    assert pytest.approx(run.allocation.seismic.V, rel=1e-6) == ft.allocation.seismic.V
     a = {k: e.envelope for k, e in run.allocation.envelope.items()}
     b = {k: e.envelope for k, e in ft.allocation.envelope.items()}
     assert a.keys() == b.keys()
@@ -116,16 +141,29 @@ def test_annotated_copy_validates_and_original_untouched(out_dir):
     logger = ifcopenshell.validate.json_logger()
     ifcopenshell.validate.validate(f, logger)
     assert logger.statements == []
-    psets = [ifcopenshell.util.element.get_pset(w, "Shearline_WallResults")
-             for w in f.by_type("IfcWall")]
+    psets = [
+        ifcopenshell.util.element.get_pset(w, "Shearline_WallResults")
+        for w in f.by_type("IfcWall")
+    ]
     assert any(p and p.get("EnvelopeShear_N", 0) > 0 for p in psets)
     assert IFC.read_bytes() == before
 
 
 def test_revision_two_round_trip(out_dir, tmp_path):
     out2 = tmp_path / "rev2"
-    code = main(["check", str(IFC_REV2), "--config", str(CONFIG), "--out", str(out2),
-                 "--previous", str(out_dir / "findings.bcf"), "-q"])
+    code = main(
+        [
+            "check",
+            str(IFC_REV2),
+            "--config",
+            str(CONFIG),
+            "--out",
+            str(out2),
+            "--previous",
+            str(out_dir / "findings.bcf"),
+            "-q",
+        ]
+    )
     assert code in (0, 1)
     from checks.report.bcf_read import read_topics
 

@@ -1,45 +1,81 @@
 """Plan drawing of one level as inline SVG: diaphragm, openings, lines, piers, forces.
 
 Piers are coloured by demand/capacity ratio with a palette of our own: five bands whose
-lightness falls steadily with the ratio (readable in greyscale print and by colour-blind
-readers), plus a stroke pattern per band so the band never depends on colour alone.
-Plan X to the right, Y up (the SVG's y axis is flipped). Every string from the model is
-escaped.
+CIE lightness falls steadily with the ratio (the order survives greyscale print and
+every kind of colour blindness), and each band has its own stroke pattern, so a band
+never depends on colour alone. Each pier is drawn over a black casing and a white
+underlay, so the palest band stays visible on the diaphragm fill and the gaps of a
+pattern show white in every band.
+
+Plan X to the right, Y up (the SVG's y axis is flipped). X lines carry their arrow in
+the left margin, Y lines in the bottom margin, both pointing in the positive sense;
+labels are spread apart where lines are close. Every string from the model is escaped.
 """
 
 from __future__ import annotations
 
+import math
 from dataclasses import dataclass
 from html import escape
 
 from shapely.geometry import Polygon
 
-__all__ = ["BANDS", "PlanWall", "band_of", "plan_svg"]
+__all__ = [
+    "BANDS",
+    "NO_RATIO",
+    "Band",
+    "PlanLine",
+    "PlanWall",
+    "band_of",
+    "legend_svg",
+    "plan_svg",
+]
+
+_LEFT, _RIGHT, _TOP, _BOTTOM = 190.0, 30.0, 30.0, 175.0  # margins [px]
+_LABEL_GAP = 15.0  # [px] closest spacing of two line labels (12 px text)
+_WALL_W = 6.5  # [px] width of a pier's coloured stroke
 
 
-@dataclass(frozen=True, slots=True)
+@dataclass(frozen=True, slots=True, kw_only=True)
 class Band:
-    """One ratio band of the palette."""
+    """One ratio band of the palette.
 
-    upper: float  # band holds ratios below this
+    Attributes:
+        upper: The band holds ratios below this [-].
+        label: Legend text.
+        colour: sRGB hex colour.
+        dash: SVG ``stroke-dasharray`` ("" = solid) [px].
+    """
+
+    upper: float
     label: str
     colour: str
-    dash: str  # SVG stroke-dasharray ("" = solid)
+    dash: str
 
 
-# Lightness falls monotonically (about 90 % to 15 %): greyscale keeps the order.
+# CIE L* falls from about 90 to 10 (checked by the tests); patterns all differ.
 BANDS: tuple[Band, ...] = (
-    Band(0.5, "< 0.50", "#e9e3b4", ""),
-    Band(0.8, "0.50–0.80", "#9fc59a", ""),
-    Band(1.0, "0.80–1.00", "#4b8f8c", ""),
-    Band(1.2, "1.00–1.20", "#7a3f74", "6 2"),
-    Band(float("inf"), "≥ 1.20", "#2a0f2f", "2 2"),
+    Band(upper=0.5, label="< 0.50", colour="#e9e3b4", dash=""),
+    Band(upper=0.8, label="0.50–0.80", colour="#9fc59a", dash="14 3"),
+    Band(upper=1.0, label="0.80–1.00", colour="#4b8f8c", dash="7 3"),
+    Band(upper=1.2, label="1.00–1.20", colour="#7a3f74", dash="3.5 2.5"),
+    Band(upper=float("inf"), label="≥ 1.20", colour="#2a0f2f", dash="1.5 2.5"),
 )
-NO_RATIO = Band(float("nan"), "no capacity", "#b8b8b8", "1 3")
+NO_RATIO = Band(upper=float("nan"), label="no capacity", colour="#b8b8b8", dash="1 5")
 
 
 def band_of(dcr: float | None) -> Band:
-    """The palette band of a ratio (``None`` = no capacity)."""
+    """The palette band of a demand/capacity ratio.
+
+    Common practice: bands of 0.5, 0.8, 1.0 and 1.2 separate comfortable, working,
+    near-limit, over and well over capacity.
+
+    Args:
+        dcr: Demand/capacity ratio [-], or None when there is no capacity.
+
+    Returns:
+        The band.
+    """
     if dcr is None:
         return NO_RATIO
     for band in BANDS:
@@ -50,11 +86,24 @@ def band_of(dcr: float | None) -> Band:
 
 @dataclass(frozen=True, slots=True, kw_only=True)
 class PlanWall:
-    """What the plan needs of one pier."""
+    """What the plan needs of one pier.
 
-    anchor: str  # HTML id of the pier's row / element
+    Attributes:
+        group: HTML id of the wall's group on the plan (one per wall and level).
+        row: HTML id of the pier's table row (the plan links there).
+        guid: GlobalId of the IfcWall.
+        label: Wall name for the tooltip.
+        tag: Short key shown on the plan and in the table (``"W3"``).
+        start: Plan start point [m].
+        end: Plan end point [m].
+        dcr: Demand/capacity ratio [-], or None.
+    """
+
+    group: str
+    row: str
     guid: str
     label: str
+    tag: str
     start: tuple[float, float]
     end: tuple[float, float]
     dcr: float | None
@@ -62,127 +111,278 @@ class PlanWall:
 
 @dataclass(frozen=True, slots=True, kw_only=True)
 class PlanLine:
-    """What the plan needs of one line of resistance."""
+    """What the plan needs of one line of resistance.
+
+    Attributes:
+        id: Line id.
+        direction: ``"X"`` or ``"Y"``.
+        offset: Perpendicular position of the line [m].
+        force_label: Envelope force, already in display units.
+    """
 
     id: str
-    direction: str  # "X" or "Y"
+    direction: str
     offset: float
-    extent: tuple[float, float]
     force_label: str
 
 
+@dataclass(frozen=True, slots=True)
 class _Frame:
-    def __init__(self, bounds: tuple[float, float, float, float], width: float, height: float):
-        x0, y0, x1, y1 = bounds
-        self.margin = 60.0
-        span = max(x1 - x0, y1 - y0, 1e-6)
-        self.s = min((width - 2 * self.margin) / max(x1 - x0, span * 0.05),
-                     (height - 2 * self.margin) / max(y1 - y0, span * 0.05))
-        self.x0, self.y1 = x0, y1
+    x0: float
+    y1: float
+    s: float  # [px/m]
+    width: float
+    height: float
+    right: float  # px of the plan's right edge
+    bottom: float  # px of the plan's bottom edge
 
     def pt(self, x: float, y: float) -> tuple[float, float]:
-        return (self.margin + (x - self.x0) * self.s, self.margin + (self.y1 - y) * self.s)
+        return (_LEFT + (x - self.x0) * self.s, _TOP + (self.y1 - y) * self.s)
 
 
-def _path(poly: Polygon, fr: _Frame) -> str:
-    def ring(coords) -> str:
-        pts = [fr.pt(x, y) for x, y in coords]
-        return "M" + " L".join(f"{a:.1f},{b:.1f}" for a, b in pts) + " Z"
+def _frame(bounds: tuple[float, float, float, float], width: float, max_plan_h: float):
+    x0, y0, x1, y1 = bounds
+    dx, dy = max(x1 - x0, 1e-6), max(y1 - y0, 1e-6)
+    s = min((width - _LEFT - _RIGHT) / dx, max_plan_h / dy)
+    return _Frame(x0=x0, y1=y1, s=s, width=width, height=_TOP + dy * s + _BOTTOM,
+                  right=_LEFT + dx * s, bottom=_TOP + dy * s)
 
-    return " ".join([ring(poly.exterior.coords), *(ring(i.coords) for i in poly.interiors)])
+
+def spread(wanted: list[float], lo: float, hi: float, gap: float) -> list[float]:
+    """Positions near ``wanted`` (sorted) at least ``gap`` apart, kept within [lo, hi].
+
+    Common practice: a one-dimensional label layout, pushed forward then back.
+
+    Args:
+        wanted: Preferred positions, ascending [px].
+        lo: Lowest allowed position [px].
+        hi: Highest allowed position [px].
+        gap: Least spacing [px].
+
+    Returns:
+        The positions, ascending [px].
+    """
+    out: list[float] = []
+    for w in wanted:
+        out.append(max(w, lo, out[-1] + gap if out else lo))
+    for i in range(len(out) - 1, -1, -1):
+        top = hi if i == len(out) - 1 else out[i + 1] - gap
+        out[i] = min(out[i], top)
+    return out
+
+
+def _ring(coords, fr: _Frame) -> str:
+    pts = [fr.pt(x, y) for x, y in coords]
+    return "M" + " L".join(f"{a:.1f},{b:.1f}" for a, b in pts) + " Z"
+
+
+def _diaphragm(poly: Polygon, fr: _Frame, ident: str) -> list[str]:
+    rings = " ".join([_ring(poly.exterior.coords, fr),
+                      *(_ring(i.coords, fr) for i in poly.interiors)])
+    out = [f'<path class="diaphragm" id="{escape(ident)}" fill-rule="evenodd" d="{rings}"/>']
+    for hole in poly.interiors:  # drafting convention: an opening is crossed
+        h = Polygon(hole)
+        x0, y0, x1, y1 = h.bounds
+        if h.area < 0.95 * (x1 - x0) * (y1 - y0):
+            continue
+        (a, b), (c, d) = fr.pt(x0, y0), fr.pt(x1, y1)
+        out.append(f'<path class="opening" d="M{a:.1f},{b:.1f} L{c:.1f},{d:.1f} '
+                   f'M{a:.1f},{d:.1f} L{c:.1f},{b:.1f}"/>')
+    return out
+
+
+def _x_lines(lines: list[PlanLine], fr: _Frame) -> list[str]:
+    xs = sorted((ln for ln in lines if ln.direction == "X"), key=lambda ln: -ln.offset)
+    ys = [fr.pt(0.0, ln.offset)[1] for ln in xs]
+    placed = spread(ys, _TOP, fr.bottom + 40.0, _LABEL_GAP)
+    out = []
+    for ln, y, ty in zip(xs, ys, placed, strict=True):
+        a0, a1 = _LEFT - 62.0, _LEFT - 6.0
+        leader = (f'<path class="leader" d="M{a0 - 4:.1f},{ty:.1f} L{a0:.1f},{y:.1f}"/>'
+                  if abs(ty - y) > 1.0 else "")
+        out.append(
+            f'<g class="line" data-line="{escape(ln.id)}">'
+            f'<line class="axis" x1="{a1:.1f}" y1="{y:.1f}" x2="{fr.right + 8:.1f}" y2="{y:.1f}"/>'
+            f'<path class="arrow" d="M{a0:.1f},{y:.1f} L{a1:.1f},{y:.1f}" '
+            f'marker-end="url(#arrowhead)"/>{leader}'
+            f'<text x="{a0 - 6:.1f}" y="{ty + 4:.1f}" text-anchor="end">'
+            f"<tspan class=\"lid\">{escape(ln.id)}</tspan> {escape(ln.force_label)}</text></g>")
+    return out
+
+
+def _y_lines(lines: list[PlanLine], fr: _Frame) -> list[str]:
+    ys = sorted((ln for ln in lines if ln.direction == "Y"), key=lambda ln: ln.offset)
+    xs = [fr.pt(ln.offset, 0.0)[0] for ln in ys]
+    placed = spread(xs, _LEFT - 20.0, fr.width - 10.0, _LABEL_GAP)
+    out = []
+    for ln, x, tx in zip(ys, xs, placed, strict=True):
+        a0, a1 = fr.bottom + 62.0, fr.bottom + 6.0
+        leader = (f'<path class="leader" d="M{tx:.1f},{a0 + 4:.1f} L{x:.1f},{a0:.1f}"/>'
+                  if abs(tx - x) > 1.0 else "")
+        out.append(
+            f'<g class="line" data-line="{escape(ln.id)}">'
+            f'<line class="axis" x1="{x:.1f}" y1="{a1:.1f}" x2="{x:.1f}" y2="{_TOP - 8:.1f}"/>'
+            f'<path class="arrow" d="M{x:.1f},{a0:.1f} L{x:.1f},{a1:.1f}" '
+            f'marker-end="url(#arrowhead)"/>{leader}'
+            f'<text transform="translate({tx + 4:.1f},{a0 + 6:.1f}) rotate(-90)" '
+            f'text-anchor="end"><tspan class="lid">{escape(ln.id)}</tspan> '
+            f"{escape(ln.force_label)}</text></g>")
+    return out
+
+
+def _pier_strokes(band: Band, x1: float, y1: float, x2: float, y2: float) -> str:
+    xy = f'x1="{x1:.1f}" y1="{y1:.1f}" x2="{x2:.1f}" y2="{y2:.1f}"'
+    dash = f' stroke-dasharray="{band.dash}"' if band.dash else ""
+    return (f'<line class="casing" {xy}/><line class="under" {xy}/>'
+            f'<line class="band" {xy} stroke="{band.colour}"{dash}/>')
+
+
+def _walls(walls: list[PlanWall], fr: _Frame, centre: tuple[float, float]) -> list[str]:
+    groups: dict[str, list[PlanWall]] = {}
+    for w in walls:
+        groups.setdefault(w.group, []).append(w)
+    out = []
+    for gid, piers in groups.items():
+        first = piers[0]
+        worst = max((p.dcr for p in piers if p.dcr is not None), default=None)
+        ratio = "no capacity" if worst is None else f"DCR {worst:.2f}"
+        parts = [f'<g class="wall" id="{escape(gid)}" data-guid="{escape(first.guid)}">'
+                 f"<title>{escape(first.tag)} {escape(first.label)} ({escape(first.guid)})"
+                 f": {ratio}</title>"]
+        for p in piers:
+            (ax, ay), (bx, by) = fr.pt(*p.start), fr.pt(*p.end)
+            parts.append(f'<a href="#{escape(p.row)}">'
+                         f"{_pier_strokes(band_of(p.dcr), ax, ay, bx, by)}</a>")
+        parts.append(_tag(piers, fr, centre, worst))
+        out.append("".join(parts) + "</g>")
+    return out
+
+
+def _tag(piers: list[PlanWall], fr: _Frame, centre: tuple[float, float],
+         worst: float | None) -> str:
+    p = max(piers, key=lambda q: (q.end[0] - q.start[0]) ** 2 + (q.end[1] - q.start[1]) ** 2)
+    (ax, ay), (bx, by) = fr.pt(*p.start), fr.pt(*p.end)
+    mx, my = (ax + bx) / 2.0, (ay + by) / 2.0
+    length = max(((bx - ax) ** 2 + (by - ay) ** 2) ** 0.5, 1e-9)
+    nx, ny = -(by - ay) / length, (bx - ax) / length
+    cx, cy = fr.pt(*centre)
+    if (cx - mx) * nx + (cy - my) * ny < 0:  # put the tag on the inner side
+        nx, ny = -nx, -ny
+    tx, ty = mx + 14.0 * nx, my + 14.0 * ny
+    over = ""
+    if worst is not None and worst >= 1.0:
+        over = (f'<text class="over" x="{tx + 12:.1f}" y="{ty + 4:.1f}">'
+                f"{worst:.2f}</text>")
+    return (f'<g class="tag"><circle cx="{tx:.1f}" cy="{ty:.1f}" r="9"/>'
+            f'<text x="{tx:.1f}" y="{ty + 3.5:.1f}" text-anchor="middle">'
+            f"{escape(p.tag)}</text>{over}</g>")
+
+
+def _centres(cm: tuple[float, float] | None, cr: tuple[float, float] | None,
+             fr: _Frame) -> list[str]:
+    out = []
+    if cm is not None:
+        x, y = fr.pt(*cm)
+        out.append(
+            f'<g class="cm"><circle cx="{x:.1f}" cy="{y:.1f}" r="7"/>'
+            f'<path d="M{x:.1f},{y:.1f} L{x + 7:.1f},{y:.1f} A7,7 0 0 0 {x:.1f},{y - 7:.1f} '
+            f'Z M{x:.1f},{y:.1f} L{x - 7:.1f},{y:.1f} A7,7 0 0 0 {x:.1f},{y + 7:.1f} Z"/>'
+            f'<text x="{x - 10:.1f}" y="{y - 9:.1f}" text-anchor="end">CM</text></g>')
+    if cr is not None:
+        x, y = fr.pt(*cr)
+        out.append(
+            f'<g class="cr"><rect x="{x - 6:.1f}" y="{y - 6:.1f}" width="12" height="12"/>'
+            f'<path d="M{x - 6:.1f},{y - 6:.1f} L{x + 6:.1f},{y + 6:.1f} M{x - 6:.1f},'
+            f'{y + 6:.1f} L{x + 6:.1f},{y - 6:.1f}"/>'
+            f'<text x="{x + 10:.1f}" y="{y + 18:.1f}">CR</text></g>')
+    return out
+
+
+def _scale_and_axes(fr: _Frame, unit: tuple[str, float]) -> str:
+    label, metres_per_unit = unit
+    px_per_unit = fr.s * metres_per_unit
+    raw = 100.0 / px_per_unit  # [unit] that would be 100 px long
+    decade = 10.0 ** math.floor(math.log10(raw))
+    step = max(m * decade for m in (1.0, 2.0, 5.0, 10.0) if m * decade <= raw)
+    x, y = 70.0, fr.height - 24.0
+    bar = step * px_per_unit
+    return (
+        f'<g class="scale"><line x1="{x:.1f}" y1="{y:.1f}" x2="{x + bar:.1f}" y2="{y:.1f}"/>'
+        f'<text x="{x:.1f}" y="{y - 7:.1f}">{step:g} {escape(label)}</text></g>'
+        f'<g class="axes"><path class="arrow" d="M20,{y:.1f} L50,{y:.1f}" '
+        f'marker-end="url(#arrowhead)"/><path class="arrow" d="M20,{y:.1f} L20,{y - 30:.1f}" '
+        f'marker-end="url(#arrowhead)"/><text x="46" y="{y + 14:.1f}">X</text>'
+        f'<text x="6" y="{y - 24:.1f}">Y</text></g>'
+    )
 
 
 def plan_svg(
     *,
     level: str,
-    diaphragms: list[Polygon],
+    diaphragms: list[tuple[str, Polygon]],
     walls: list[PlanWall],
     lines: list[PlanLine],
     centre_of_mass: tuple[float, float] | None,
     centre_of_rigidity: tuple[float, float] | None,
+    scale_unit: tuple[str, float] = ("m", 1.0),
     width: float = 900.0,
-    height: float = 620.0,
+    max_plan_height: float = 560.0,
 ) -> str:
     """The SVG markup of one level's plan.
 
+    Common practice: a framing-plan style drawing, lines of resistance as grid lines.
+
     Args:
         level: Level name (escaped into the title).
-        diaphragms: Diaphragm outlines with holes [m].
+        diaphragms: (HTML id, outline with holes [m]) per diaphragm region.
         walls: Piers to draw, coloured by ratio.
         lines: Lines with their force labels (display units already applied).
         centre_of_mass: CM of the levels at and above [m], or None.
         centre_of_rigidity: CR of the story [m], or None.
+        scale_unit: Label and length of the scale bar's unit (``("ft", 0.3048)``) [m].
         width: SVG width [px].
-        height: SVG height [px].
+        max_plan_height: Largest height of the plan itself [px].
 
     Returns:
         An ``<svg>`` element as text.
     """
-    xs = [c for p in diaphragms for c in (p.bounds[0], p.bounds[2])]
-    ys = [c for p in diaphragms for c in (p.bounds[1], p.bounds[3])]
+    xs = [c for _, p in diaphragms for c in (p.bounds[0], p.bounds[2])]
+    ys = [c for _, p in diaphragms for c in (p.bounds[1], p.bounds[3])]
     for w in walls:
         xs += [w.start[0], w.end[0]]
         ys += [w.start[1], w.end[1]]
     if not xs:
         xs, ys = [0.0, 1.0], [0.0, 1.0]
-    fr = _Frame((min(xs), min(ys), max(xs), max(ys)), width, height)
+    fr = _frame((min(xs), min(ys), max(xs), max(ys)), width, max_plan_height)
+    centre = centre_of_mass or ((min(xs) + max(xs)) / 2.0, (min(ys) + max(ys)) / 2.0)
     out = [
         f'<svg class="plan" xmlns="http://www.w3.org/2000/svg" viewBox="0 0 {width:.0f} '
-        f'{height:.0f}" role="img" aria-label="Plan of {escape(level)}">',
+        f'{fr.height:.0f}" role="img" aria-label="Plan of {escape(level)}">',
         f"<title>Plan of {escape(level)}</title>",
     ]
-    for poly in diaphragms:
-        out.append(f'<path class="diaphragm" fill-rule="evenodd" d="{_path(poly, fr)}"/>')
-    for ln in lines:
-        out.append(_line_svg(ln, fr))
-    for w in walls:
-        band = band_of(w.dcr)
-        (ax, ay), (bx, by) = fr.pt(*w.start), fr.pt(*w.end)
-        ratio = "no capacity" if w.dcr is None else f"DCR {w.dcr:.2f}"
-        out.append(
-            f'<a href="#{escape(w.anchor)}"><line class="wall" id="plan-{escape(w.anchor)}" '
-            f'data-guid="{escape(w.guid)}" x1="{ax:.1f}" y1="{ay:.1f}" x2="{bx:.1f}" '
-            f'y2="{by:.1f}" stroke="{band.colour}" stroke-dasharray="{band.dash}">'
-            f"<title>{escape(w.label)} ({escape(w.guid)}): {ratio}</title></line></a>"
-        )
-    for mark, pt, cls in (("CM", centre_of_mass, "cm"), ("CR", centre_of_rigidity, "cr")):
-        if pt is not None:
-            x, y = fr.pt(*pt)
-            shape = (f'<circle cx="{x:.1f}" cy="{y:.1f}" r="7"/>' if cls == "cm" else
-                     f'<rect x="{x - 6:.1f}" y="{y - 6:.1f}" width="12" height="12"/>')
-            out.append(f'<g class="{cls}">{shape}<text x="{x + 10:.1f}" y="{y - 8:.1f}">'
-                       f"{mark}</text></g>")
-    out.append(_scale_bar(fr, height))
+    for ident, poly in diaphragms:
+        out += _diaphragm(poly, fr, ident)
+    out += _x_lines(lines, fr) + _y_lines(lines, fr)
+    out += _walls(walls, fr, centre)
+    out += _centres(centre_of_mass, centre_of_rigidity, fr)
+    out.append(_scale_and_axes(fr, scale_unit))
     out.append("</svg>")
     return "\n".join(out)
 
 
-def _line_svg(ln: PlanLine, fr: _Frame) -> str:
-    a, b = ln.extent
-    if ln.direction == "X":
-        (x0, y0), (x1, y1) = fr.pt(a, ln.offset), fr.pt(b, ln.offset)
-        ax, ay = x0 - 50, y0
-        arrow = f"M{ax:.1f},{ay:.1f} L{ax + 40:.1f},{ay:.1f}"
-        tx, ty = ax, ay - 6
-    else:
-        (x0, y0), (x1, y1) = fr.pt(ln.offset, a), fr.pt(ln.offset, b)
-        ax, ay = x0, y0 + 50
-        arrow = f"M{ax:.1f},{ay:.1f} L{ax:.1f},{ay - 40:.1f}"
-        tx, ty = ax + 6, ay - 4
-    return (
-        f'<g class="line" data-line="{escape(ln.id)}"><line x1="{x0:.1f}" y1="{y0:.1f}" '
-        f'x2="{x1:.1f}" y2="{y1:.1f}"/><path class="arrow" d="{arrow}" '
-        f'marker-end="url(#arrowhead)"/><text x="{tx:.1f}" y="{ty:.1f}">'
-        f"{escape(ln.id)}: {escape(ln.force_label)}</text></g>"
-    )
+def legend_svg() -> str:
+    """The legend of the plans: ratio bands with their patterns, CM, CR, line arrow.
 
+    Common practice: a drawing carries its own key, so it reads in greyscale print.
 
-def _scale_bar(fr: _Frame, height: float) -> str:
-    metres = 5.0
-    while metres * fr.s > 240:
-        metres /= 2
-    while metres * fr.s < 60:
-        metres *= 2
-    x, y = 20.0, height - 20.0
-    return (f'<g class="scale"><line x1="{x:.1f}" y1="{y:.1f}" x2="{x + metres * fr.s:.1f}" '
-            f'y2="{y:.1f}"/><text x="{x:.1f}" y="{y - 6:.1f}">{metres:g} m</text></g>')
+    Returns:
+        An ``<svg>`` element as text.
+    """
+    items, x = [], 10.0
+    for band in (*BANDS, NO_RATIO):
+        items.append(f"{_pier_strokes(band, x, 14, x + 40, 14)}"
+                     f'<text x="{x + 46:.1f}" y="18">{escape(band.label)}</text>')
+        x += 60.0 + 7.0 * len(band.label)
+    return (f'<svg class="legend" xmlns="http://www.w3.org/2000/svg" viewBox="0 0 {x:.0f} 28"'
+            f' role="img" aria-label="Legend: demand/capacity ratio bands">'
+            f"<title>Demand/capacity ratio bands</title>{''.join(items)}</svg>")

@@ -109,8 +109,12 @@ def results_document(
                 "diaphragm_force": lv.diaphragm_force,
                 "Cvx": lv.Cvx,
                 "weight_breakdown": [
-                    {"source": it.source, "quantity": it.quantity,
-                     "unit_load": it.unit_load, "weight": it.weight}
+                    {
+                        "source": it.source,
+                        "quantity": it.quantity,
+                        "unit_load": it.unit_load,
+                        "weight": it.weight,
+                    }
                     for it in lv.breakdown
                 ],
             }

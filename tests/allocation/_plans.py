@@ -10,10 +10,18 @@ from collections.abc import Sequence
 
 from shapely.geometry import Polygon
 
+from allocation.flexible import allocate_flexible
 from allocation.lines import find_lines
 from allocation.parameters import AnalysisOptions
 from allocation.piers import make_piers
-from allocation.results import LevelLoad, MassItem, Pier, ResistanceLine
+from allocation.results import (
+    FlexibleResult,
+    LevelLoad,
+    MassItem,
+    Pier,
+    PointLoad,
+    ResistanceLine,
+)
 from ifc_bridge.model import (
     BuildingModel,
     Diaphragm,
@@ -192,3 +200,21 @@ def wall_mass(
 def by_offset(lines: Sequence[ResistanceLine], forces: dict[str, float]) -> list[float]:
     """Line forces in order of increasing offset [N]."""
     return [forces[ln.id] for ln in sorted(lines, key=lambda ln: ln.offset)]
+
+
+def run_flexible(
+    walls: Sequence[WallSegment],
+    regions: Sequence[Diaphragm],
+    *,
+    Fx: float = 1000.0,
+    direction: Direction = Direction.X,
+    extra: Sequence[MassItem] = (),
+    point_loads: Sequence[PointLoad] = (),
+) -> tuple[tuple[ResistanceLine, ...], tuple[Pier, ...], FlexibleResult]:
+    """Lines, piers and the flexible result of one level with 1 kPa slabs."""
+    lines, piers = lines_of(walls, regions)
+    load = slab_load(regions, Fx=Fx, extra=extra)
+    result = allocate_flexible(
+        load, regions, lines, piers, direction=direction, point_loads=point_loads
+    )
+    return lines, piers, result

@@ -11,14 +11,11 @@ rectangular plans; the tolerance covers nothing but round-off).
 from __future__ import annotations
 
 import itertools
-import math
 
 import pytest
-from hypothesis import given, settings
-from hypothesis import strategies as st
-from shapely.affinity import affine_transform
 from shapely.geometry import Polygon, box
 
+from allocation._pieces import Support
 from allocation.flexible import allocate_flexible, lever_rule, transfer_point_loads
 from allocation.results import ConditionKind, MassItem
 from ifc_bridge.model import Direction
@@ -26,7 +23,7 @@ from tests.allocation._plans import (
     by_offset,
     diaphragm,
     lines_of,
-    segment,
+    run_flexible,
     slab_load,
     wall_mass,
     x_wall,
@@ -90,15 +87,6 @@ def _strip_reference(rects, masses, supports, *, direction, per_m=100):
     return {v: f / total for v, f in out.items()}, lost / total
 
 
-def _run(walls, regions, *, Fx=1000.0, direction=X, extra=(), point_loads=()):
-    lines, piers = lines_of(walls, regions)
-    load = slab_load(regions, Fx=Fx, extra=extra)
-    result = allocate_flexible(
-        load, regions, lines, piers, direction=direction, point_loads=point_loads
-    )
-    return lines, piers, result
-
-
 def _forces_by_offset(lines, result):
     return {
         ln.offset: result.line_forces[ln.id]
@@ -116,7 +104,7 @@ BOX = [
 
 
 def test_uniform_rectangle_between_two_lines_gives_half_to_each():
-    lines, _, r = _run(BOX, [diaphragm(box(0, 0, 20, 10))], Fx=1000.0)
+    lines, _, r = run_flexible(BOX, [diaphragm(box(0, 0, 20, 10))], Fx=1000.0)
     assert by_offset([ln for ln in lines if ln.direction is X], r.line_forces) == [
         pytest.approx(500.0),
         pytest.approx(500.0),
@@ -134,7 +122,7 @@ def test_uniform_rectangle_between_two_lines_gives_half_to_each():
 
 def test_three_unequally_spaced_lines_take_their_tributary_widths():
     walls = [*BOX, x_wall("M", 4.0, 0.0, 20.0)]
-    lines, _, r = _run(walls, [diaphragm(box(0, 0, 20, 10))], Fx=1000.0)
+    lines, _, r = run_flexible(walls, [diaphragm(box(0, 0, 20, 10))], Fx=1000.0)
     # Hand: spans 4 m and 6 m; tributary widths 2, 2 + 3, 3 m of 10 m.
     assert by_offset([ln for ln in lines if ln.direction is X], r.line_forces) == [
         pytest.approx(200.0),
@@ -147,7 +135,7 @@ def test_symmetric_hole_keeps_half_and_half():
     holed = Polygon(
         box(0, 0, 20, 10).exterior.coords, [box(8, 4, 12, 6).exterior.coords]
     )
-    lines, _, r = _run(BOX, [diaphragm(holed)], Fx=1000.0)
+    lines, _, r = run_flexible(BOX, [diaphragm(holed)], Fx=1000.0)
     assert by_offset([ln for ln in lines if ln.direction is X], r.line_forces) == [
         pytest.approx(500.0),
         pytest.approx(500.0),
@@ -165,7 +153,7 @@ def test_stair_opening_on_a_line_is_spanned_around_not_cantilevered():
         y_wall("B", 12.0, 6.4, 22.0),
         y_wall("C", 24.0, 0.0, 22.0),
     ]
-    lines, _, r = _run(walls, [diaphragm(plan)], direction=Y, Fx=1000.0)
+    lines, _, r = run_flexible(walls, [diaphragm(plan)], direction=Y, Fx=1000.0)
     assert r.conditions == ()
     # Hand, composite areas: west part 144 - 13.52 m², x̄ = (144·6 - 13.52·10.7)/130.48;
     # east part 12 x 22 m halves; Fx shared by area 130.48 / 394.48 and 264 / 394.48.
@@ -187,7 +175,7 @@ def test_round_off_in_line_offset_does_not_move_it_off_a_slab_edge(dx):
         y_wall("B", 12.0 + dx, 12.0, 22.0),
         y_wall("C", 24.0, 0.0, 22.0),
     ]
-    lines, _, r = _run(walls, [diaphragm(plan)], direction=Y, Fx=1000.0)
+    lines, _, r = run_flexible(walls, [diaphragm(plan)], direction=Y, Fx=1000.0)
     assert lines[1].crossings == (("L1/D1", pytest.approx(22.0)),)
     # Hand: west 144 m² halves, east 264 m² halves, of 408 m².
     assert by_offset(lines, r.line_forces) == [
@@ -206,7 +194,7 @@ def test_line_stopping_at_an_opening_supports_only_its_side():
         x_wall("M", 5.0, 0.0, 3.0),
         x_wall("N", 10.0, 0.0, 10.0),
     ]
-    lines, _, r = _run(walls, [diaphragm(holed)], Fx=960.0)
+    lines, _, r = run_flexible(walls, [diaphragm(holed)], Fx=960.0)
     # Hand, 96 m²: west strips 4 x 5 m halve (10 + 10, 10 + 10); the east part (56 m²,
     # centroid y = 5) spans y = 0 to 10: 28 / 28. Forces x 10 N/m².
     assert by_offset(lines, r.line_forces) == [
@@ -257,7 +245,9 @@ def test_l_shape_matches_strip_integration(walls, direction, supports, cantileve
         location=(8.0, 1.5),
         polygon=box(6, 0, 10, 3),
     )
-    lines, _, r = _run(walls, [diaphragm(ELL)], direction=direction, extra=[extra])
+    lines, _, r = run_flexible(
+        walls, [diaphragm(ELL)], direction=direction, extra=[extra]
+    )
     ref, lost = _strip_reference(
         ELL_RECTS,
         [(rc, 1000.0) for rc in ELL_RECTS] + [((6, 0, 10, 3), 500.0)],
@@ -298,7 +288,9 @@ T_RECTS = [(0, 6, 12, 10), (4, 0, 8, 6)]
 def test_t_shape_matches_strip_integration_and_hand(
     walls, direction, supports, by_hand
 ):
-    lines, _, r = _run(walls, [diaphragm(T_SHAPE)], direction=direction, Fx=7200.0)
+    lines, _, r = run_flexible(
+        walls, [diaphragm(T_SHAPE)], direction=direction, Fx=7200.0
+    )
     ref, _ = _strip_reference(
         T_RECTS, [(rc, 1.0) for rc in T_RECTS], supports, direction=direction
     )
@@ -310,7 +302,7 @@ def test_t_shape_matches_strip_integration_and_hand(
 
 def test_piece_touching_one_line_cantilevers_to_it():
     walls = [x_wall("S", 0.0, 0.0, 10.0), y_wall("W", 0.0, 0.0, 10.0)]
-    _lines, _, r = _run(walls, [diaphragm(box(0, 0, 10, 10))], Fx=800.0)
+    _lines, _, r = run_flexible(walls, [diaphragm(box(0, 0, 10, 10))], Fx=800.0)
     assert r.line_forces == {"L1-X-1": pytest.approx(800.0)}  # common practice: all
     (c,) = r.conditions
     assert (c.kind, c.ref, c.value) == (
@@ -324,7 +316,7 @@ def test_piece_touching_one_line_cantilevers_to_it():
 def test_piece_touching_no_line_is_unsupported_and_not_allocated():
     west, east = diaphragm(box(0, 0, 10, 10), n=1), diaphragm(box(20, 0, 30, 10), n=2)
     walls = [x_wall("S", 0.0, 0.0, 10.0), x_wall("N", 10.0, 0.0, 10.0)]
-    _, _, r = _run(walls, [west, east], Fx=1000.0)
+    _, _, r = run_flexible(walls, [west, east], Fx=1000.0)
     assert sum(r.line_forces.values()) == pytest.approx(500.0)  # equal areas: half lost
     (c,) = [c for c in r.conditions if c.kind is ConditionKind.UNSUPPORTED_PIECE]
     assert (c.ref, c.value, c.guids) == ("L1/D2/X1", pytest.approx(500.0), ("S-L1-2",))
@@ -341,7 +333,9 @@ def test_wall_masses_on_line_go_to_it_and_inside_by_lever_rule():
         wall_mass("S", 20_000.0, (5.0, -0.1)),
         wall_mass("P", 10_000.0, (5.0, 2.0)),
     ]
-    lines, _, r = _run(walls, [diaphragm(box(0, 0, 10, 10))], Fx=13_000.0, extra=extra)
+    lines, _, r = run_flexible(
+        walls, [diaphragm(box(0, 0, 10, 10))], Fx=13_000.0, extra=extra
+    )
     # Hand, W = 100 + 20 + 10 kN, Fx/W = 0.1: slab 10 kN halves; wall S 2 kN straight to
     # its line; wall P 1 kN at y = 2 of a 10 m span: 0.8 / 0.2 (lever rule).
     assert by_offset([ln for ln in lines if ln.direction is X], r.line_forces) == [
@@ -377,7 +371,9 @@ def test_point_load_from_non_stacking_wall_splits_by_lever_rule():
     assert [(c.kind, c.guids, c.level) for c in conditions] == [
         (ConditionKind.NON_STACKING_WALL, ("U",), "L1")
     ]
-    _, _, r = _run(walls, [diaphragm(box(0, 0, 10, 10))], Fx=0.0, point_loads=loads)
+    _, _, r = run_flexible(
+        walls, [diaphragm(box(0, 0, 10, 10))], Fx=0.0, point_loads=loads
+    )
     # Hand: P = 1000 N at a = 3 m from y = 0, b = 7 m: R0 = P b / L = 700, R10 = 300 N.
     assert by_offset(lower[:2], r.line_forces) == [
         pytest.approx(700.0),
@@ -391,7 +387,6 @@ def test_point_load_from_non_stacking_wall_splits_by_lever_rule():
 
 
 def test_lever_rule_by_hand():
-    from allocation._pieces import Support
 
     s = (
         Support(line="a", v=0.0, segments=((0, 1),)),
@@ -419,108 +414,3 @@ def test_force_with_no_diaphragm_is_reported_not_allocated():
     assert set(r.line_forces.values()) == {0.0}
     (c,) = r.conditions
     assert (c.kind, c.value) == (ConditionKind.UNSUPPORTED_PIECE, 100.0)
-
-
-# --- properties -------------------------------------------------------------------
-
-
-def _plan(W, H, fracs, point, transform=lambda x, y: (x, y)):
-    """W x H box, X lines at 0, H and H*fracs, Y lines at 0 and W, transformed."""
-
-    def t(p):
-        return transform(*p)
-
-    def poly(g):
-        (a, b), (c, d), (e, f) = t((0, 0)), t((1, 0)), t((0, 1))
-        return affine_transform(g, [c - a, e - a, d - b, f - b, a, b])
-
-    raw = [((0, 0), (W, 0)), ((0, H), (W, H)), ((0, 0), (0, H)), ((W, 0), (W, H))]
-    raw += [((0.25 * W, f * H), (0.75 * W, f * H)) for f in fracs]
-    walls = [segment(f"W{i}", t(s), t(e)) for i, (s, e) in enumerate(raw)]
-    region = diaphragm(poly(box(0, 0, W, H)))
-    px, py, pw = point
-    extra = [
-        wall_mass("M", pw, t((px * W, py * H))),
-        MassItem(
-            source="extra",
-            ref="x",
-            weight=3000.0,
-            location=t((0.1, 0.1)),
-            polygon=poly(box(0, 0, 0.5 * W, 0.3 * H)),
-        ),
-    ]
-    return walls, region, extra
-
-
-plans = st.tuples(
-    st.floats(4.0, 30.0),
-    st.floats(4.0, 30.0),
-    st.lists(st.floats(0.1, 0.9), max_size=3, unique=True)
-    .map(sorted)
-    .filter(lambda fs: all(b - a > 0.1 for a, b in itertools.pairwise(fs))),
-    st.tuples(st.floats(0.0, 1.0), st.floats(0.0, 1.0), st.floats(0.0, 5e4)),
-)
-FAST = settings(max_examples=25, derandomize=True, deadline=None)
-
-
-@FAST
-@given(plan=plans, Fx=st.floats(1.0, 1e6), P=st.floats(0.0, 1e5))
-def test_line_forces_add_up_to_level_force_and_point_loads(plan, Fx, P):  # statics
-    W, H, fracs, point = plan
-    walls, region, extra = _plan(W, H, fracs, point)
-    from allocation.results import PointLoad
-
-    pl = PointLoad(
-        level="L1",
-        direction=X,
-        source_pier="U|L2|0|0",
-        location=(0.3 * W, 0.7 * H),
-        force=P,
-        shares=(),
-    )
-    _lines, _, r = _run(walls, [region], Fx=Fx, extra=extra, point_loads=[pl])
-    assert math.fsum(r.line_forces.values()) == pytest.approx(Fx + P, rel=1e-9)
-    assert math.fsum(r.pier_forces.values()) == pytest.approx(Fx + P, rel=1e-9)
-    assert sum(p.polygon.area for p in r.pieces) == pytest.approx(W * H, rel=1e-9)
-
-
-@FAST
-@given(plan=plans, Fx=st.floats(1.0, 1e6))
-def test_symmetric_plan_gives_mirror_lines_equal_forces(plan, Fx):
-    W, H, fracs, _ = plan
-    sym = sorted({*fracs, *(1.0 - f for f in fracs)})
-    if any(b - a < 0.05 for a, b in itertools.pairwise(sym)):
-        sym = fracs = []
-    walls, region, _ = _plan(W, H, sym, (0.5, 0.5, 0.0))
-    lines, _, r = _run(walls, [region], Fx=Fx)
-    forces = by_offset([ln for ln in lines if ln.direction is X], r.line_forces)
-    assert forces == pytest.approx(forces[::-1], rel=1e-9)  # mirror symmetry
-
-
-@FAST
-@given(plan=plans, dx=st.floats(-500.0, 500.0), dy=st.floats(-500.0, 500.0))
-def test_translation_leaves_forces_unchanged(plan, dx, dy):
-    W, H, fracs, point = plan
-    for d in (X, Y):
-        walls, region, extra = _plan(W, H, fracs, point)
-        lines, _, base = _run(walls, [region], extra=extra, direction=d)
-        walls, region, extra = _plan(W, H, fracs, point, lambda x, y: (x + dx, y + dy))
-        moved_lines, _, moved = _run(walls, [region], extra=extra, direction=d)
-        a = by_offset([ln for ln in lines if ln.direction is d], base.line_forces)
-        b = by_offset(
-            [ln for ln in moved_lines if ln.direction is d], moved.line_forces
-        )
-        assert b == pytest.approx(a, rel=1e-6, abs=1e-6)
-
-
-@FAST
-@given(plan=plans)
-def test_rotating_plan_by_90_degrees_swaps_x_and_y(plan):
-    W, H, fracs, point = plan
-    walls, region, extra = _plan(W, H, fracs, point)
-    lines, _, rx = _run(walls, [region], extra=extra, direction=X)
-    walls, region, extra = _plan(W, H, fracs, point, lambda x, y: (-y, x))
-    rlines, _, ry = _run(walls, [region], extra=extra, direction=Y)
-    a = by_offset([ln for ln in lines if ln.direction is X], rx.line_forces)
-    b = by_offset([ln for ln in rlines if ln.direction is Y], ry.line_forces)
-    assert b[::-1] == pytest.approx(a, rel=1e-6, abs=1e-6)  # y = c maps to x = -c
