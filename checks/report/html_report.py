@@ -30,11 +30,11 @@ body{font-family:system-ui,-apple-system,"Segoe UI",Helvetica,Arial,sans-serif;m
 h1{font-size:1.55em;margin-bottom:.2em} h2{border-bottom:2px solid #333;padding-bottom:.15em;margin-top:1.8em}
 nav a{margin-right:1em} .meta{color:#333} small{color:#444}
 table{border-collapse:collapse;margin:.6em 0;font-size:.84em} th,td{border:1px solid #bbb;padding:.22em .45em;
- text-align:right;vertical-align:top} th{background:#ececec} td.t,th.t{text-align:left}
+ text-align:right;vertical-align:top} th{background:#ececec} td.t,th.t{text-align:left} td{white-space:nowrap} td.t,td.lp{white-space:normal}
 thead{display:table-header-group} tr{break-inside:avoid}
 tr.line td{background:#f3f3f3;font-weight:600} tr:target td{background:#fff3b0}
 td.over{font-weight:700} td.over::after{content:" \\25B2"}
-.cols{display:flex;gap:2em;flex-wrap:wrap;align-items:flex-start}
+.params td{text-align:left} .cols{display:flex;gap:2em;flex-wrap:wrap;align-items:flex-start}
 .caution{border:2px solid #000;padding:.6em 1em;background:#fafafa;font-weight:600}
 .sev{display:inline-block;min-width:5.5em;font-weight:700}
 .sev-error::before{content:"\\2716  "} .sev-warning::before{content:"\\25B2  "} .sev-info::before{content:"\\25CF  "}
@@ -88,8 +88,12 @@ def _piers_by_line(alloc, level: str) -> list[tuple[object | None, list]]:
     out = []
     for ln in (x for x in alloc.lines if x.level == level):
         axis = 0 if ln.direction.value == "X" else 1
-        on = sorted((p for p in piers if p.line == ln.id),
-                    key=lambda p: min(p.start[axis], p.end[axis]))
+        on = [p for p in piers if p.line == ln.id]
+        first = {}
+        for p in on:
+            at = min(p.start[axis], p.end[axis])
+            first[p.guid] = min(first.get(p.guid, at), at)
+        on.sort(key=lambda p: (first[p.guid], p.guid, p.pier))
         out.append((ln, on))
     rest = [p for p in piers if not any(p.line == ln.id for ln, _ in out)]
     if rest:
@@ -159,7 +163,7 @@ def _line_row(ln, alloc, system: DisplayUnits) -> str:
             f"<td>{f(fo.get('envelope', 0.0))}</td><td colspan='5'></td></tr>")
 
 
-def _pier_row(p, run, tags, system: DisplayUnits) -> str:
+def _pier_row(p, run, tags, system: DisplayUnits, *, first: bool) -> str:
     alloc, checks = run.allocation, getattr(run.checks, "pier_checks", {})
     f = lambda v: format_value(v, "force", system)  # noqa: E731
     v = lambda x: "-" if x is None else format_value(x, "force_per_length", system)  # noqa: E731
@@ -167,10 +171,10 @@ def _pier_row(p, run, tags, system: DisplayUnits) -> str:
     dcr = getattr(c, "dcr", None)
     gov = f"{env.governing_method.value} {env.governing_case}" if env else "-"
     ratio = "-" if dcr is None else f"{dcr:.2f}"
+    name = f"{escape(p.name)}<br><small>{escape(p.guid)}</small>" if first else "<small>(same wall)</small>"
     return (
         f'<tr id="{html_id("pier", p.id)}"><td class="t"><a href="#{wall_anchor(p.guid, p.level)}">'
-        f"{escape(tags[p.guid])}</a></td><td class='t'>{escape(p.name)}<br>"
-        f"<small>{escape(p.guid)}</small></td><td>{p.pier}</td>"
+        f"{escape(tags[p.guid])}</a></td><td class='t'>{name}</td><td>{p.pier}</td>"
         f"<td>{escape(p.direction.value if p.direction else '-')}</td>"
         f"<td class='t'>{escape(p.assembly or '-')}</td>"
         f"<td>{format_value(p.length, 'length', system)}</td>"
@@ -189,7 +193,8 @@ def _level(run, level, system: DisplayUnits) -> str:
     rows = []
     for ln, piers in groups:
         rows.append(_line_row(ln, run.allocation, system))
-        rows += [_pier_row(p, run, tags, system) for p in piers]
+        rows += [_pier_row(p, run, tags, system, first=i == 0 or piers[i - 1].guid != p.guid)
+                 for i, p in enumerate(piers)]
     table = ("<table class='walls'><thead><tr><th class='t'>Tag</th><th class='t'>Wall</th>"
              "<th>Pier</th><th>Dir</th><th class='t'>Assembly</th><th>Length</th>"
              "<th>Flexible</th><th>Rigid</th><th>Envelope</th><th class='t'>Governs</th>"

@@ -61,7 +61,7 @@ BANDS: tuple[Band, ...] = (
     Band(upper=1.2, label="1.00–1.20", colour="#7a3f74", dash="3.5 2.5"),
     Band(upper=float("inf"), label="≥ 1.20", colour="#2a0f2f", dash="1.5 2.5"),
 )
-NO_RATIO = Band(upper=float("nan"), label="no capacity", colour="#b8b8b8", dash="1 5")
+NO_RATIO = Band(upper=float("nan"), label="no capacity", colour="#8f8f8f", dash="1.5 3.5")
 
 
 def band_of(dcr: float | None) -> Band:
@@ -268,7 +268,7 @@ def _tag(piers: list[PlanWall], fr: _Frame, centre: tuple[float, float],
     cx, cy = fr.pt(*centre)
     if (cx - mx) * nx + (cy - my) * ny < 0:  # put the tag on the inner side
         nx, ny = -nx, -ny
-    tx, ty = mx + 14.0 * nx, my + 14.0 * ny
+    tx, ty = mx + 17.0 * nx, my + 17.0 * ny
     over = ""
     if worst is not None and worst >= 1.0:
         over = (f'<text class="over" x="{tx + 12:.1f}" y="{ty + 4:.1f}">'
