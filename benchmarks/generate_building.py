@@ -18,6 +18,7 @@ from pathlib import Path
 import numpy as np
 
 STOREY_HEIGHT = 3.0
+SLAB_DEPTH = 0.25  # the slab hangs below its storey elevation; walls stop under it
 BAY = 6.0
 
 
@@ -30,16 +31,18 @@ def _guid(*parts: object) -> str:
 
 
 def generate(storeys: int, walls_per_storey: int, path: Path) -> Path:
-    """Author the building and write it to ``path`` (IFC4, metres)."""
+    """Author the building and write it to ``path`` (IFC4, millimetres)."""
     import ifcopenshell
     import ifcopenshell.api
+    import ifcopenshell.util.unit
 
     run = ifcopenshell.api.run
     f = run("project.create_file", version="IFC4")
     project = run(
         "root.create_entity", f, ifc_class="IfcProject", name="Benchmark tower"
     )
-    run("unit.assign_unit", f)
+    run("unit.assign_unit", f)  # millimetres: attributes in file units, matrices in SI
+    unit = ifcopenshell.util.unit.calculate_unit_scale(f)  # [m per file unit]
     ctx = run("context.add_context", f, context_type="Model")
     body = run(
         "context.add_context",
@@ -90,7 +93,7 @@ def generate(storeys: int, walls_per_storey: int, path: Path) -> Path:
             name=f"Level {s + 1}",
         )
         storey.GlobalId = _guid("storey", s)
-        storey.Elevation = z
+        storey.Elevation = z / unit
         run(
             "geometry.edit_object_placement",
             f,
@@ -128,7 +131,13 @@ def generate(storeys: int, walls_per_storey: int, path: Path) -> Path:
                     walls.append(wall)
                     if count % 5 == 0:
                         _opening(
-                            f, run, body, wall, seg_len * 0.95, (s, direction, i, k)
+                            f,
+                            run,
+                            body,
+                            wall,
+                            _matrix(x, y, z, ang),
+                            seg_len * 0.95,
+                            (s, direction, i, k),
                         )
                     count += 1
         while count < walls_per_storey:  # partitions in the bays
@@ -187,7 +196,7 @@ def _wall(f, run, body, axis_ctx, key, x, y, z, angle, length):
         f,
         context=body,
         length=length,
-        height=STOREY_HEIGHT - 0.3,
+        height=STOREY_HEIGHT - SLAB_DEPTH,
         thickness=0.2,
     )
     run("geometry.assign_representation", f, product=wall, representation=rep)
@@ -201,11 +210,11 @@ def _wall(f, run, body, axis_ctx, key, x, y, z, angle, length):
     return wall
 
 
-def _opening(f, run, body, wall, length, key):
+def _opening(f, run, body, wall, wall_matrix, length, key):
     op = run("root.create_entity", f, ifc_class="IfcOpeningElement", name="door")
     op.GlobalId = _guid("opening", *key)
     w = min(1.0, length / 3)
-    m = _placement(wall).copy()
+    m = wall_matrix.copy()  # SI, as edit_object_placement expects (is_si=True)
     m[:3, 3] += m[:3, 0] * (length / 2 - w / 2) - m[:3, 1] * 0.2
     run("geometry.edit_object_placement", f, product=op, matrix=m)
     rep = run(
@@ -218,12 +227,6 @@ def _opening(f, run, body, wall, length, key):
     )
     run("geometry.assign_representation", f, product=op, representation=rep)
     run("feature.add_feature", f, feature=op, element=wall)
-
-
-def _placement(element) -> np.ndarray:
-    import ifcopenshell.util.placement
-
-    return ifcopenshell.util.placement.get_local_placement(element.ObjectPlacement)
 
 
 def _slab(f, run, body, storey, s, width, depth, z):
@@ -239,11 +242,15 @@ def _slab(f, run, body, storey, s, width, depth, z):
         "geometry.edit_object_placement",
         f,
         product=slab,
-        matrix=_matrix(0.0, 0.0, z, 0.0),
+        matrix=_matrix(0.0, 0.0, z - SLAB_DEPTH, 0.0),
     )
     outer = [(0.0, 0.0), (width, 0.0), (width, depth), (0.0, depth), (0.0, 0.0)]
     rep = run(
-        "geometry.add_slab_representation", f, context=body, depth=0.25, polyline=outer
+        "geometry.add_slab_representation",
+        f,
+        context=body,
+        depth=SLAB_DEPTH,
+        polyline=outer,
     )
     run("geometry.assign_representation", f, product=slab, representation=rep)
     hole = run("root.create_entity", f, ifc_class="IfcOpeningElement", name="stair")

@@ -30,7 +30,9 @@ def html_id(kind: str, *parts: str) -> str:
         The id.
     """
     text = "|".join(parts)
-    return kind + "-" + re.sub(r"[^A-Za-z0-9-]", lambda m: f"_{ord(m.group()):x}_", text)
+    return (
+        kind + "-" + re.sub(r"[^A-Za-z0-9-]", lambda m: f"_{ord(m.group()):x}_", text)
+    )
 
 
 def _row(key: str, value: str) -> str:
@@ -45,14 +47,25 @@ def _cs_rows(run) -> list[str]:
     long = s.T > p.TL
     rows = [
         ("Eq. 12.8-2", "SDS/(R/Ie)", s12_8_elf.Cs_base(p.SDS, p.R, p.Ie)),
-        ("Eq. 12.8-4" if long else "Eq. 12.8-3",
-         "upper limit " + ("SD1·TL/(T²·R/Ie)" if long else "SD1/(T·R/Ie)"),
-         s12_8_elf.Cs_max(p.SD1, s.T, p.TL, p.R, p.Ie)),
-        ("Eq. 12.8-5", "lower limit 0.044·SDS·Ie ≥ 0.01", s12_8_elf.Cs_min(p.SDS, p.Ie)),
+        (
+            "Eq. 12.8-4" if long else "Eq. 12.8-3",
+            "upper limit " + ("SD1·TL/(T²·R/Ie)" if long else "SD1/(T·R/Ie)"),
+            s12_8_elf.Cs_max(p.SD1, s.T, p.TL, p.R, p.Ie),
+        ),
+        (
+            "Eq. 12.8-5",
+            "lower limit 0.044·SDS·Ie ≥ 0.01",
+            s12_8_elf.Cs_min(p.SDS, p.Ie),
+        ),
     ]
     if p.S1 >= 0.6:
-        rows.append(("Eq. 12.8-6", "lower limit 0.5·S1/(R/Ie)",
-                     s12_8_elf.Cs_min_S1(p.S1, p.R, p.Ie)))
+        rows.append(
+            (
+                "Eq. 12.8-6",
+                "lower limit 0.5·S1/(R/Ie)",
+                s12_8_elf.Cs_min_S1(p.S1, p.R, p.Ie),
+            )
+        )
     out = []
     for eq, what, value in rows:
         mark = " <b>governs</b>" if s.Cs_governs.startswith(f"ASCE 7-16 {eq}") else ""
@@ -77,14 +90,20 @@ def seismic_section(run, system: DisplayUnits) -> str:
     f = lambda v: format_value(v, "force", system)  # noqa: E731
     rho = getattr(run.checks, "rho", None)
     rows = [
-        _row("Procedure", "equivalent lateral force (§12.8)" if s.procedure == "elf"
-             else "level forces given in the config"),
+        _row(
+            "Procedure",
+            "equivalent lateral force (§12.8)"
+            if s.procedure == "elf"
+            else "level forces given in the config",
+        ),
         _row("SDS / SD1 / S1", f"{p.SDS:g} g / {p.SD1:g} g / {p.S1:g} g"),
         _row("TL", f"{p.TL:g} s"),
         _row("R / Ie / Cd / Ω0", f"{p.R:g} / {p.Ie:g} / {p.Cd:g} / {p.omega0:g}"),
         _row("ρ (§12.3.4)", "-" if rho is None else f"{rho:g}"),
         _row("hn", format_value(s.hn, "length", system)),
-        _row("Ta (Eq. 12.8-7) / Cu / T used", f"{s.Ta:.3f} s / {s.Cu:.2f} / {s.T:.3f} s"),
+        _row(
+            "Ta (Eq. 12.8-7) / Cu / T used", f"{s.Ta:.3f} s / {s.Cu:.2f} / {s.T:.3f} s"
+        ),
         _row("k (§12.8.3)", f"{s.k:.3f}"),
         *_cs_rows(run),
         _row("W (§12.7.2)", f(s.W)),
@@ -95,7 +114,8 @@ def seismic_section(run, system: DisplayUnits) -> str:
         f"<td>{format_value(x.height, 'length', system)}</td><td>{f(x.seismic_weight)}</td>"
         f"<td>{x.Cvx:.4f}</td><td>{f(x.story_force)}</td><td>{f(x.story_shear)}</td>"
         f"<td>{f(x.diaphragm_force)}</td></tr>"
-        for x in reversed(run.allocation.levels))
+        for x in reversed(run.allocation.levels)
+    )
     return (
         '<section id="seismic"><h2>Seismic summary (ASCE 7-16 §12.8)</h2>'
         f'<div class="cols"><table class="params">{"".join(rows)}</table>'
@@ -143,5 +163,6 @@ def load_path_cell(graphs, pier, system: DisplayUnits) -> str:
     head = "; ".join(f"{escape(lv)} {f(v)}" for lv, v in by_level.items())
     items = "".join(
         f"<li>{escape(c.level)}: {_source(c.source)}, share {c.share:.3f} → {f(c.force)}</li>"
-        for c in parts)
+        for c in parts
+    )
     return f"<details><summary>{head}</summary><ul>{items}</ul></details>"

@@ -54,11 +54,12 @@ svg .cm circle{fill:#fff;stroke:#000;stroke-width:1.5} svg .cm path{fill:#000}
 svg .cr rect{fill:#fff;stroke:#000;stroke-width:1.5} svg .cr path{stroke:#000;stroke-width:1.2}
 svg .scale line{stroke:#000;stroke-width:3} svg .cm text,svg .cr text{font-weight:700}
 details{margin:0} summary{cursor:pointer} details ul{margin:.2em 0;padding-left:1.2em;text-align:left}
-td.lp{font-size:.92em;text-align:left;max-width:22em}
+td.lp{font-size:.92em;text-align:left;max-width:22em} td.g{text-align:left}
 @page{size:letter;margin:12mm}
 @media print{body{margin:0;padding:0;max-width:none;font-size:10pt} nav{display:none}
  section.level{break-before:page} section.level>h2{margin-top:0} #findings{break-before:page}
- a{color:inherit;text-decoration:none} svg.plan,svg.legend{break-inside:avoid;max-width:100%}}
+ a{color:inherit;text-decoration:none} table{font-size:7pt} table.walls{width:100%}
+ td,th{padding:.15em .3em} td.lp{max-width:14em} svg.plan,svg.legend{break-inside:avoid;max-width:100%}}
 """
 _DEFS = (
     '<svg width="0" height="0" style="position:absolute" aria-hidden="true"><defs>'
@@ -112,21 +113,44 @@ def _tags(groups) -> dict[str, str]:
 def _plan(run, level, groups, tags, system: DisplayUnits) -> str:
     alloc, checks = run.allocation, getattr(run.checks, "pier_checks", {})
     f = lambda v: format_value(v, "force", system)  # noqa: E731
-    walls = [PlanWall(group=wall_anchor(p.guid, p.level), row=html_id("pier", p.id),
-                      guid=p.guid, label=p.name, tag=tags[p.guid], start=p.start, end=p.end,
-                      dcr=getattr(checks.get(p.id), "dcr", None))
-             for _, piers in groups for p in piers]
-    lines = [PlanLine(id=ln.id, direction=ln.direction.value, offset=ln.offset,
-                      force_label=f(alloc.line_envelope.get(ln.id, {}).get("envelope", 0.0)))
-             for ln, _ in groups if ln is not None]
+    walls = [
+        PlanWall(
+            group=wall_anchor(p.guid, p.level),
+            row=html_id("pier", p.id),
+            guid=p.guid,
+            label=p.name,
+            tag=tags[p.guid],
+            start=p.start,
+            end=p.end,
+            dcr=getattr(checks.get(p.id), "dcr", None),
+        )
+        for _, piers in groups
+        for p in piers
+    ]
+    lines = [
+        PlanLine(
+            id=ln.id,
+            direction=ln.direction.value,
+            offset=ln.offset,
+            force_label=f(alloc.line_envelope.get(ln.id, {}).get("envelope", 0.0)),
+        )
+        for ln, _ in groups
+        if ln is not None
+    ]
     per_unit, label = to_display(1.0, "length", system)
     cm, cr = _centres(run, level)
     return plan_svg(
         level=level.level,
-        diaphragms=[(html_id("diaphragm", d.id), d.polygon)
-                    for d in run.model.diaphragms_of(level.level)],
-        walls=walls, lines=lines, centre_of_mass=cm, centre_of_rigidity=cr,
-        scale_unit=(label, 1.0 / per_unit))
+        diaphragms=[
+            (html_id("diaphragm", d.id), d.polygon)
+            for d in run.model.diaphragms_of(level.level)
+        ],
+        walls=walls,
+        lines=lines,
+        centre_of_mass=cm,
+        centre_of_rigidity=cr,
+        scale_unit=(label, 1.0 / per_unit),
+    )
 
 
 def _centres(run, level):
@@ -138,29 +162,35 @@ def _centres(run, level):
 
 def _caption(run, level, system: DisplayUnits) -> str:
     cm, cr = _centres(run, level)
-    L = lambda v: format_value(v, "length", system)  # noqa: E731
-    text = f"CM ({L(cm[0])}, {L(cm[1])}): centre of mass of the levels at and above."
+    m = lambda v: format_value(v, "length", system)  # noqa: E731
+    text = f"CM ({m(cm[0])}, {m(cm[1])}): centre of mass of the levels at and above."
     if cr is not None:
-        text += (f" CR ({L(cr[0])}, {L(cr[1])}): centre of rigidity of the walls below;"
-                 f" CR − CM = ({L(cr[0] - cm[0])}, {L(cr[1] - cm[1])}).")
-    return (f"<p><small>{text} Arrows show the positive sense of each line's force; the "
-            "value is the envelope over both senses, ±accidental eccentricity and both "
-            "idealisations. Tags W1, W2, ... key the walls to the table; a ratio is "
-            "printed beside walls at or over capacity. Click a wall for its row.</small></p>")
+        text += (
+            f" CR ({m(cr[0])}, {m(cr[1])}): centre of rigidity of the walls below;"
+            f" CR − CM = ({m(cr[0] - cm[0])}, {m(cr[1] - cm[1])})."
+        )
+    return (
+        f"<p><small>{text} Arrows show the positive sense of each line's force; the "
+        "value is the envelope over both senses, ±accidental eccentricity and both "
+        "idealisations. Tags W1, W2, ... key the walls to the table; a ratio is "
+        "printed beside walls at or over capacity. Click a wall for its row.</small></p>"
+    )
 
 
 def _line_row(ln, alloc, system: DisplayUnits) -> str:
     f = lambda v: format_value(v, "force", system)  # noqa: E731
-    L = lambda v: format_value(v, "length", system)  # noqa: E731
+    m = lambda v: format_value(v, "length", system)  # noqa: E731
     if ln is None:
         return '<tr class="line"><td class="t" colspan="14">Not on a line of resistance</td></tr>'
     fo = alloc.line_envelope.get(ln.id, {})
     where = "y" if ln.direction.value == "X" else "x"
-    return (f'<tr class="line" id="{html_id("line", ln.id)}"><td class="t" colspan="5">'
-            f"Line {escape(ln.id)} ({escape(ln.direction.value)}), {where} = {L(ln.offset)};"
-            f" collector {L(ln.collector_length)}</td><td>{L(ln.wall_length)}</td>"
-            f"<td>{f(fo.get('flexible', 0.0))}</td><td>{f(fo.get('rigid', 0.0))}</td>"
-            f"<td>{f(fo.get('envelope', 0.0))}</td><td colspan='5'></td></tr>")
+    return (
+        f'<tr class="line" id="{html_id("line", ln.id)}"><td class="t" colspan="5">'
+        f"Line {escape(ln.id)} ({escape(ln.direction.value)}), {where} = {m(ln.offset)};"
+        f" collector {m(ln.collector_length)}</td><td>{m(ln.wall_length)}</td>"
+        f"<td>{f(fo.get('flexible', 0.0))}</td><td>{f(fo.get('rigid', 0.0))}</td>"
+        f"<td>{f(fo.get('envelope', 0.0))}</td><td colspan='5'></td></tr>"
+    )
 
 
 def _pier_row(p, run, tags, system: DisplayUnits, *, first: bool) -> str:
@@ -171,7 +201,11 @@ def _pier_row(p, run, tags, system: DisplayUnits, *, first: bool) -> str:
     dcr = getattr(c, "dcr", None)
     gov = f"{env.governing_method.value} {env.governing_case}" if env else "-"
     ratio = "-" if dcr is None else f"{dcr:.2f}"
-    name = f"{escape(p.name)}<br><small>{escape(p.guid)}</small>" if first else "<small>(same wall)</small>"
+    name = (
+        f"{escape(p.name)}<br><small>{escape(p.guid)}</small>"
+        if first
+        else "<small>(same wall)</small>"
+    )
     return (
         f'<tr id="{html_id("pier", p.id)}"><td class="t"><a href="#{wall_anchor(p.guid, p.level)}">'
         f"{escape(tags[p.guid])}</a></td><td class='t'>{name}</td><td>{p.pier}</td>"
@@ -179,10 +213,11 @@ def _pier_row(p, run, tags, system: DisplayUnits, *, first: bool) -> str:
         f"<td class='t'>{escape(p.assembly or '-')}</td>"
         f"<td>{format_value(p.length, 'length', system)}</td>"
         f"<td>{f(env.flexible) if env else '-'}</td><td>{f(env.rigid) if env else '-'}</td>"
-        f"<td><b>{f(env.envelope) if env else '-'}</b></td><td class='t'>{escape(gov)}</td>"
+        f"<td><b>{f(env.envelope) if env else '-'}</b></td><td class='g'>{escape(gov)}</td>"
         f"<td>{v(getattr(c, 'unit_shear', None))}</td><td>{v(getattr(c, 'capacity', None))}</td>"
         f"<td{' class=over' if dcr is not None and dcr >= 1.0 else ''}>{ratio}</td>"
-        f"<td class='lp'>{load_path_cell(alloc.graphs, p, system)}</td></tr>")
+        f"<td class='lp'>{load_path_cell(alloc.graphs, p, system)}</td></tr>"
+    )
 
 
 def _level(run, level, system: DisplayUnits) -> str:
@@ -193,21 +228,28 @@ def _level(run, level, system: DisplayUnits) -> str:
     rows = []
     for ln, piers in groups:
         rows.append(_line_row(ln, run.allocation, system))
-        rows += [_pier_row(p, run, tags, system, first=i == 0 or piers[i - 1].guid != p.guid)
-                 for i, p in enumerate(piers)]
-    table = ("<table class='walls'><thead><tr><th class='t'>Tag</th><th class='t'>Wall</th>"
-             "<th>Pier</th><th>Dir</th><th class='t'>Assembly</th><th>Length</th>"
-             "<th>Flexible</th><th>Rigid</th><th>Envelope</th><th class='t'>Governs</th>"
-             "<th>Unit shear v</th><th>Capacity</th><th>DCR</th>"
-             "<th class='t'>Load path (flexible)</th></tr></thead><tbody>"
-             + "".join(rows) + "</tbody></table>")
-    return (f'<section class="level" id="{html_id("level", level.level)}">'
-            f"<h2>{escape(level.level)}: diaphragm{below}</h2>"
-            f"<p>Fx = {format_value(level.story_force, 'force', system)}, "
-            f"Vx = {format_value(level.story_shear, 'force', system)}, "
-            f"Fpx = {format_value(level.diaphragm_force, 'force', system)}</p>"
-            f"{_plan(run, level, groups, tags, system)}{legend_svg()}"
-            f"{_caption(run, level, system)}{table}</section>")
+        rows += [
+            _pier_row(p, run, tags, system, first=i == 0 or piers[i - 1].guid != p.guid)
+            for i, p in enumerate(piers)
+        ]
+    table = (
+        "<table class='walls'><thead><tr><th class='t'>Tag</th><th class='t'>Wall</th>"
+        "<th>Pier</th><th>Dir</th><th class='t'>Assembly</th><th>Length</th>"
+        "<th>Flexible</th><th>Rigid</th><th>Envelope</th><th class='t'>Governs</th>"
+        "<th>v = V/L</th><th>Capacity</th><th>DCR</th>"
+        "<th class='t'>Load path (flexible)</th></tr></thead><tbody>"
+        + "".join(rows)
+        + "</tbody></table>"
+    )
+    return (
+        f'<section class="level" id="{html_id("level", level.level)}">'
+        f"<h2>{escape(level.level)}: diaphragm{below}</h2>"
+        f"<p>Fx = {format_value(level.story_force, 'force', system)}, "
+        f"Vx = {format_value(level.story_shear, 'force', system)}, "
+        f"Fpx = {format_value(level.diaphragm_force, 'force', system)}</p>"
+        f"{_plan(run, level, groups, tags, system)}{legend_svg()}"
+        f"{_caption(run, level, system)}{table}</section>"
+    )
 
 
 def _link_targets(run) -> dict[tuple[str, str], str]:
@@ -229,22 +271,30 @@ def _link_targets(run) -> dict[tuple[str, str], str]:
 
 def _findings(run) -> str:
     targets, items = _link_targets(run), []
+    names = {p.guid: p.name for p in run.allocation.piers}
     counts = {s: 0 for s in _ORDER}
     for fd in sorted(run.findings, key=lambda x: (_ORDER[x.severity], x.level, x.id)):
         counts[fd.severity] += 1
         links = []
         for g in fd.guids:
             href = targets.get((g, fd.level)) or targets.get((g, ""))
-            links.append(f'<a href="#{href}">{escape(g)}</a>' if href else escape(g))
+            text = f"{escape(names[g])} ({escape(g)})" if g in names else escape(g)
+            links.append(f'<a href="#{href}">{text}</a>' if href else text)
         items.append(
             f'<li id="{html_id("finding", fd.id)}"><span class="sev sev-{fd.severity.value}">'
             f"{escape(fd.severity.value)}</span> <b>{escape(fd.title)}</b> "
             f"<small>[{escape(fd.clause)}; {escape(fd.level or 'building')}]</small><br>"
             f"{escape(fd.description)}<br><small>Elements: {' '.join(links) or '-'}; "
-            f"finding id {escape(fd.id)}</small></li>")
-    head = ", ".join(f"{n} {s.value}" for s, n in counts.items())
-    return (f'<section id="findings"><h2>Findings ({head})</h2>'
-            f'<ol class="findings">{"".join(items)}</ol></section>')
+            f"finding id {escape(fd.id)}</small></li>"
+        )
+    head = ", ".join(
+        f"{n} {s.value}{'s' if n != 1 and s is not Severity.INFO else ''}"
+        for s, n in counts.items()
+    )
+    return (
+        f'<section id="findings"><h2>Findings ({head})</h2>'
+        f'<ol class="findings">{"".join(items)}</ol></section>'
+    )
 
 
 def _assumptions(run, system: DisplayUnits) -> list[str]:
@@ -265,9 +315,11 @@ def _assumptions(run, system: DisplayUnits) -> list[str]:
         f"Design basis {cfg.design_basis.value}; unit shear v = V/L of each full-height pier.",
         "Walls with openings are split into full-height piers.",
     ]
-    out += [f"Assembly {x.name} ({x.kind.value}): capacity {v(x.unit_shear_capacity)}"
-            f"{'; ' + x.capacity_source if x.capacity_source else ''}."
-            for x in cfg.assemblies]
+    out += [
+        f"Assembly {x.name} ({x.kind.value}): capacity {v(x.unit_shear_capacity)}"
+        f"{'; ' + x.capacity_source if x.capacity_source else ''}."
+        for x in cfg.assemblies
+    ]
     return out
 
 
@@ -284,28 +336,35 @@ def render_report(run, *, system: DisplayUnits) -> str:
         The HTML document.
     """
     cfg, levels = run.config, list(reversed(run.allocation.levels))
-    nav = "".join(f'<a href="#{html_id("level", lv.level)}">{escape(lv.level)}</a>'
-                  for lv in levels)
-    body = "".join([
-        f"<h1>{escape(cfg.name)}: lateral force allocation and checks</h1>",
-        f'<p class="meta">Model {escape(str(run.model.source))} ({escape(run.model.schema)});'
-        f" config {escape(str(cfg.path))}; display units {escape(DisplayUnits(system).value)}."
-        "</p>",
-        f'<p class="caution">{escape(CAUTION)}</p>',
-        f'<nav><a href="#seismic">Seismic</a>{nav}<a href="#findings">Findings</a>'
-        '<a href="#assumptions">Assumptions</a></nav>',
-        seismic_section(run, system),
-        *(_level(run, lv, system) for lv in levels),
-        _findings(run),
-        '<section id="assumptions"><h2>Assumptions</h2><ul>'
-        + "".join(f"<li>{escape(x)}</li>" for x in _assumptions(run, system)) + "</ul>"
-        f'<p class="caution">{escape(CAUTION)}</p></section>',
-    ])
-    return (f'<!DOCTYPE html><html lang="en"><head><meta charset="utf-8">'
-            f'<meta http-equiv="Content-Security-Policy" content="{_CSP}">'
-            f'<meta name="viewport" content="width=device-width, initial-scale=1">'
-            f"<title>{escape(cfg.name)} — shearline report</title><style>{_CSS}</style>"
-            f"</head><body>{_DEFS}{body}</body></html>")
+    nav = "".join(
+        f'<a href="#{html_id("level", lv.level)}">{escape(lv.level)}</a>'
+        for lv in levels
+    )
+    body = "".join(
+        [
+            f"<h1>{escape(cfg.name)}: lateral force allocation and checks</h1>",
+            f'<p class="meta">Model {escape(str(run.model.source))} ({escape(run.model.schema)});'
+            f" config {escape(str(cfg.path))}; display units {escape(DisplayUnits(system).value)}."
+            "</p>",
+            f'<p class="caution">{escape(CAUTION)}</p>',
+            f'<nav><a href="#seismic">Seismic</a>{nav}<a href="#findings">Findings</a>'
+            '<a href="#assumptions">Assumptions</a></nav>',
+            seismic_section(run, system),
+            *(_level(run, lv, system) for lv in levels),
+            _findings(run),
+            '<section id="assumptions"><h2>Assumptions</h2><ul>'
+            + "".join(f"<li>{escape(x)}</li>" for x in _assumptions(run, system))
+            + "</ul>"
+            f'<p class="caution">{escape(CAUTION)}</p></section>',
+        ]
+    )
+    return (
+        f'<!DOCTYPE html><html lang="en"><head><meta charset="utf-8">'
+        f'<meta http-equiv="Content-Security-Policy" content="{_CSP}">'
+        f'<meta name="viewport" content="width=device-width, initial-scale=1">'
+        f"<title>{escape(cfg.name)} — shearline report</title><style>{_CSS}</style>"
+        f"</head><body>{_DEFS}{body}</body></html>"
+    )
 
 
 def write_report(path: str | Path, run, *, system: DisplayUnits) -> Path:

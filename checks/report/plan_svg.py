@@ -20,6 +20,15 @@ from html import escape
 
 from shapely.geometry import Polygon
 
+from checks.report._plan_palette import (
+    BANDS,
+    NO_RATIO,
+    Band,
+    band_of,
+    legend_svg,
+    pier_strokes,
+)
+
 __all__ = [
     "BANDS",
     "NO_RATIO",
@@ -29,59 +38,11 @@ __all__ = [
     "band_of",
     "legend_svg",
     "plan_svg",
+    "spread",
 ]
 
 _LEFT, _RIGHT, _TOP, _BOTTOM = 190.0, 30.0, 30.0, 175.0  # margins [px]
 _LABEL_GAP = 15.0  # [px] closest spacing of two line labels (12 px text)
-_WALL_W = 6.5  # [px] width of a pier's coloured stroke
-
-
-@dataclass(frozen=True, slots=True, kw_only=True)
-class Band:
-    """One ratio band of the palette.
-
-    Attributes:
-        upper: The band holds ratios below this [-].
-        label: Legend text.
-        colour: sRGB hex colour.
-        dash: SVG ``stroke-dasharray`` ("" = solid) [px].
-    """
-
-    upper: float
-    label: str
-    colour: str
-    dash: str
-
-
-# CIE L* falls from about 90 to 10 (checked by the tests); patterns all differ.
-BANDS: tuple[Band, ...] = (
-    Band(upper=0.5, label="< 0.50", colour="#e9e3b4", dash=""),
-    Band(upper=0.8, label="0.50–0.80", colour="#9fc59a", dash="14 3"),
-    Band(upper=1.0, label="0.80–1.00", colour="#4b8f8c", dash="7 3"),
-    Band(upper=1.2, label="1.00–1.20", colour="#7a3f74", dash="3.5 2.5"),
-    Band(upper=float("inf"), label="≥ 1.20", colour="#2a0f2f", dash="1.5 2.5"),
-)
-NO_RATIO = Band(upper=float("nan"), label="no capacity", colour="#8f8f8f", dash="1.5 3.5")
-
-
-def band_of(dcr: float | None) -> Band:
-    """The palette band of a demand/capacity ratio.
-
-    Common practice: bands of 0.5, 0.8, 1.0 and 1.2 separate comfortable, working,
-    near-limit, over and well over capacity.
-
-    Args:
-        dcr: Demand/capacity ratio [-], or None when there is no capacity.
-
-    Returns:
-        The band.
-    """
-    if dcr is None:
-        return NO_RATIO
-    for band in BANDS:
-        if dcr < band.upper:
-            return band
-    return BANDS[-1]
 
 
 @dataclass(frozen=True, slots=True, kw_only=True)
@@ -144,8 +105,15 @@ def _frame(bounds: tuple[float, float, float, float], width: float, max_plan_h: 
     x0, y0, x1, y1 = bounds
     dx, dy = max(x1 - x0, 1e-6), max(y1 - y0, 1e-6)
     s = min((width - _LEFT - _RIGHT) / dx, max_plan_h / dy)
-    return _Frame(x0=x0, y1=y1, s=s, width=width, height=_TOP + dy * s + _BOTTOM,
-                  right=_LEFT + dx * s, bottom=_TOP + dy * s)
+    return _Frame(
+        x0=x0,
+        y1=y1,
+        s=s,
+        width=width,
+        height=_TOP + dy * s + _BOTTOM,
+        right=_LEFT + dx * s,
+        bottom=_TOP + dy * s,
+    )
 
 
 def spread(wanted: list[float], lo: float, hi: float, gap: float) -> list[float]:
@@ -177,17 +145,25 @@ def _ring(coords, fr: _Frame) -> str:
 
 
 def _diaphragm(poly: Polygon, fr: _Frame, ident: str) -> list[str]:
-    rings = " ".join([_ring(poly.exterior.coords, fr),
-                      *(_ring(i.coords, fr) for i in poly.interiors)])
-    out = [f'<path class="diaphragm" id="{escape(ident)}" fill-rule="evenodd" d="{rings}"/>']
+    rings = " ".join(
+        [
+            _ring(poly.exterior.coords, fr),
+            *(_ring(i.coords, fr) for i in poly.interiors),
+        ]
+    )
+    out = [
+        f'<path class="diaphragm" id="{escape(ident)}" fill-rule="evenodd" d="{rings}"/>'
+    ]
     for hole in poly.interiors:  # drafting convention: an opening is crossed
         h = Polygon(hole)
         x0, y0, x1, y1 = h.bounds
         if h.area < 0.95 * (x1 - x0) * (y1 - y0):
             continue
         (a, b), (c, d) = fr.pt(x0, y0), fr.pt(x1, y1)
-        out.append(f'<path class="opening" d="M{a:.1f},{b:.1f} L{c:.1f},{d:.1f} '
-                   f'M{a:.1f},{d:.1f} L{c:.1f},{b:.1f}"/>')
+        out.append(
+            f'<path class="opening" d="M{a:.1f},{b:.1f} L{c:.1f},{d:.1f} '
+            f'M{a:.1f},{d:.1f} L{c:.1f},{b:.1f}"/>'
+        )
     return out
 
 
@@ -198,15 +174,19 @@ def _x_lines(lines: list[PlanLine], fr: _Frame) -> list[str]:
     out = []
     for ln, y, ty in zip(xs, ys, placed, strict=True):
         a0, a1 = _LEFT - 62.0, _LEFT - 6.0
-        leader = (f'<path class="leader" d="M{a0 - 4:.1f},{ty:.1f} L{a0:.1f},{y:.1f}"/>'
-                  if abs(ty - y) > 1.0 else "")
+        leader = (
+            f'<path class="leader" d="M{a0 - 4:.1f},{ty:.1f} L{a0:.1f},{y:.1f}"/>'
+            if abs(ty - y) > 1.0
+            else ""
+        )
         out.append(
             f'<g class="line" data-line="{escape(ln.id)}">'
             f'<line class="axis" x1="{a1:.1f}" y1="{y:.1f}" x2="{fr.right + 8:.1f}" y2="{y:.1f}"/>'
             f'<path class="arrow" d="M{a0:.1f},{y:.1f} L{a1:.1f},{y:.1f}" '
             f'marker-end="url(#arrowhead)"/>{leader}'
             f'<text x="{a0 - 6:.1f}" y="{ty + 4:.1f}" text-anchor="end">'
-            f"<tspan class=\"lid\">{escape(ln.id)}</tspan> {escape(ln.force_label)}</text></g>")
+            f'<tspan class="lid">{escape(ln.id)}</tspan> {escape(ln.force_label)}</text></g>'
+        )
     return out
 
 
@@ -217,8 +197,11 @@ def _y_lines(lines: list[PlanLine], fr: _Frame) -> list[str]:
     out = []
     for ln, x, tx in zip(ys, xs, placed, strict=True):
         a0, a1 = fr.bottom + 62.0, fr.bottom + 6.0
-        leader = (f'<path class="leader" d="M{tx:.1f},{a0 + 4:.1f} L{x:.1f},{a0:.1f}"/>'
-                  if abs(tx - x) > 1.0 else "")
+        leader = (
+            f'<path class="leader" d="M{tx:.1f},{a0 + 4:.1f} L{x:.1f},{a0:.1f}"/>'
+            if abs(tx - x) > 1.0
+            else ""
+        )
         out.append(
             f'<g class="line" data-line="{escape(ln.id)}">'
             f'<line class="axis" x1="{x:.1f}" y1="{a1:.1f}" x2="{x:.1f}" y2="{_TOP - 8:.1f}"/>'
@@ -226,15 +209,9 @@ def _y_lines(lines: list[PlanLine], fr: _Frame) -> list[str]:
             f'marker-end="url(#arrowhead)"/>{leader}'
             f'<text transform="translate({tx + 4:.1f},{a0 + 6:.1f}) rotate(-90)" '
             f'text-anchor="end"><tspan class="lid">{escape(ln.id)}</tspan> '
-            f"{escape(ln.force_label)}</text></g>")
+            f"{escape(ln.force_label)}</text></g>"
+        )
     return out
-
-
-def _pier_strokes(band: Band, x1: float, y1: float, x2: float, y2: float) -> str:
-    xy = f'x1="{x1:.1f}" y1="{y1:.1f}" x2="{x2:.1f}" y2="{y2:.1f}"'
-    dash = f' stroke-dasharray="{band.dash}"' if band.dash else ""
-    return (f'<line class="casing" {xy}/><line class="under" {xy}/>'
-            f'<line class="band" {xy} stroke="{band.colour}"{dash}/>')
 
 
 def _walls(walls: list[PlanWall], fr: _Frame, centre: tuple[float, float]) -> list[str]:
@@ -246,21 +223,28 @@ def _walls(walls: list[PlanWall], fr: _Frame, centre: tuple[float, float]) -> li
         first = piers[0]
         worst = max((p.dcr for p in piers if p.dcr is not None), default=None)
         ratio = "no capacity" if worst is None else f"DCR {worst:.2f}"
-        parts = [f'<g class="wall" id="{escape(gid)}" data-guid="{escape(first.guid)}">'
-                 f"<title>{escape(first.tag)} {escape(first.label)} ({escape(first.guid)})"
-                 f": {ratio}</title>"]
+        parts = [
+            f'<g class="wall" id="{escape(gid)}" data-guid="{escape(first.guid)}">'
+            f"<title>{escape(first.tag)} {escape(first.label)} ({escape(first.guid)})"
+            f": {ratio}</title>"
+        ]
         for p in piers:
             (ax, ay), (bx, by) = fr.pt(*p.start), fr.pt(*p.end)
-            parts.append(f'<a href="#{escape(p.row)}">'
-                         f"{_pier_strokes(band_of(p.dcr), ax, ay, bx, by)}</a>")
+            parts.append(
+                f'<a href="#{escape(p.row)}">'
+                f"{pier_strokes(band_of(p.dcr), ax, ay, bx, by)}</a>"
+            )
         parts.append(_tag(piers, fr, centre, worst))
         out.append("".join(parts) + "</g>")
     return out
 
 
-def _tag(piers: list[PlanWall], fr: _Frame, centre: tuple[float, float],
-         worst: float | None) -> str:
-    p = max(piers, key=lambda q: (q.end[0] - q.start[0]) ** 2 + (q.end[1] - q.start[1]) ** 2)
+def _tag(
+    piers: list[PlanWall], fr: _Frame, centre: tuple[float, float], worst: float | None
+) -> str:
+    p = max(
+        piers, key=lambda q: (q.end[0] - q.start[0]) ** 2 + (q.end[1] - q.start[1]) ** 2
+    )
     (ax, ay), (bx, by) = fr.pt(*p.start), fr.pt(*p.end)
     mx, my = (ax + bx) / 2.0, (ay + by) / 2.0
     length = max(((bx - ax) ** 2 + (by - ay) ** 2) ** 0.5, 1e-9)
@@ -271,15 +255,19 @@ def _tag(piers: list[PlanWall], fr: _Frame, centre: tuple[float, float],
     tx, ty = mx + 17.0 * nx, my + 17.0 * ny
     over = ""
     if worst is not None and worst >= 1.0:
-        over = (f'<text class="over" x="{tx + 12:.1f}" y="{ty + 4:.1f}">'
-                f"{worst:.2f}</text>")
-    return (f'<g class="tag"><circle cx="{tx:.1f}" cy="{ty:.1f}" r="9"/>'
-            f'<text x="{tx:.1f}" y="{ty + 3.5:.1f}" text-anchor="middle">'
-            f"{escape(p.tag)}</text>{over}</g>")
+        over = (
+            f'<text class="over" x="{tx + 12:.1f}" y="{ty + 4:.1f}">{worst:.2f}</text>'
+        )
+    return (
+        f'<g class="tag"><circle cx="{tx:.1f}" cy="{ty:.1f}" r="9"/>'
+        f'<text x="{tx:.1f}" y="{ty + 3.5:.1f}" text-anchor="middle">'
+        f"{escape(p.tag)}</text>{over}</g>"
+    )
 
 
-def _centres(cm: tuple[float, float] | None, cr: tuple[float, float] | None,
-             fr: _Frame) -> list[str]:
+def _centres(
+    cm: tuple[float, float] | None, cr: tuple[float, float] | None, fr: _Frame
+) -> list[str]:
     out = []
     if cm is not None:
         x, y = fr.pt(*cm)
@@ -287,14 +275,16 @@ def _centres(cm: tuple[float, float] | None, cr: tuple[float, float] | None,
             f'<g class="cm"><circle cx="{x:.1f}" cy="{y:.1f}" r="7"/>'
             f'<path d="M{x:.1f},{y:.1f} L{x + 7:.1f},{y:.1f} A7,7 0 0 0 {x:.1f},{y - 7:.1f} '
             f'Z M{x:.1f},{y:.1f} L{x - 7:.1f},{y:.1f} A7,7 0 0 0 {x:.1f},{y + 7:.1f} Z"/>'
-            f'<text x="{x - 10:.1f}" y="{y - 9:.1f}" text-anchor="end">CM</text></g>')
+            f'<text x="{x - 10:.1f}" y="{y - 9:.1f}" text-anchor="end">CM</text></g>'
+        )
     if cr is not None:
         x, y = fr.pt(*cr)
         out.append(
             f'<g class="cr"><rect x="{x - 6:.1f}" y="{y - 6:.1f}" width="12" height="12"/>'
             f'<path d="M{x - 6:.1f},{y - 6:.1f} L{x + 6:.1f},{y + 6:.1f} M{x - 6:.1f},'
             f'{y + 6:.1f} L{x + 6:.1f},{y - 6:.1f}"/>'
-            f'<text x="{x + 10:.1f}" y="{y + 18:.1f}">CR</text></g>')
+            f'<text x="{x + 10:.1f}" y="{y + 18:.1f}">CR</text></g>'
+        )
     return out
 
 
@@ -368,21 +358,3 @@ def plan_svg(
     out.append(_scale_and_axes(fr, scale_unit))
     out.append("</svg>")
     return "\n".join(out)
-
-
-def legend_svg() -> str:
-    """The legend of the plans: ratio bands with their patterns, CM, CR, line arrow.
-
-    Common practice: a drawing carries its own key, so it reads in greyscale print.
-
-    Returns:
-        An ``<svg>`` element as text.
-    """
-    items, x = [], 10.0
-    for band in (*BANDS, NO_RATIO):
-        items.append(f"{_pier_strokes(band, x, 14, x + 40, 14)}"
-                     f'<text x="{x + 46:.1f}" y="18">{escape(band.label)}</text>')
-        x += 60.0 + 7.0 * len(band.label)
-    return (f'<svg class="legend" xmlns="http://www.w3.org/2000/svg" viewBox="0 0 {x:.0f} 28"'
-            f' role="img" aria-label="Legend: demand/capacity ratio bands">'
-            f"<title>Demand/capacity ratio bands</title>{''.join(items)}</svg>")

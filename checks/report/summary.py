@@ -1,5 +1,8 @@
 """The terminal summary of a check: forces per level, worst ratio per level and direction,
 findings by severity. Values in display units; built as rich renderables.
+
+Strings from the model go in as ``rich.text.Text``, so square brackets in a wall or level
+name are shown as typed, never read as console markup.
 """
 
 from __future__ import annotations
@@ -58,16 +61,25 @@ def render_summary(run, *, units: str, verbose: bool = False) -> Group:
         f"W = {format_value(s.W, 'force', system)})"
     )
     levels = Table(title="Levels")
-    for col in ("level", "wx", "Fx", "Vx", "Fpx", "worst DCR X", "worst DCR Y"):
+    for col in (
+        "level",
+        "wx",
+        "Fx",
+        "Vx",
+        "Fpx",
+        "worst DCR X (wall)",
+        "worst DCR Y (wall)",
+    ):
         levels.add_column(col, justify="left" if col == "level" else "right")
     worst = worst_ratios(run)
+    names = {p.guid: p.name for p in run.allocation.piers}
     for lv in reversed(run.allocation.levels):
         cells = []
         for d in ("X", "Y"):
             w = worst.get((lv.level, d))
-            cells.append(f"{w[0]:.2f}" if w else "-")
+            cells.append(Text(f"{w[0]:.2f} {names.get(w[1]) or w[1]}" if w else "-"))
         levels.add_row(
-            lv.level,
+            Text(lv.level),
             format_value(lv.seismic_weight, "force", system),
             format_value(lv.story_force, "force", system),
             format_value(lv.story_shear, "force", system),
@@ -86,6 +98,6 @@ def render_summary(run, *, units: str, verbose: bool = False) -> Group:
         for col in ("severity", "level", "rule", "title"):
             detail.add_column(col)
         for f in run.findings:
-            detail.add_row(f.severity.value, f.level, f.rule, Text(f.title))
+            detail.add_row(f.severity.value, Text(f.level), f.rule, Text(f.title))
         parts.append(detail)
     return Group(*parts)
