@@ -7,6 +7,8 @@ lies along Y at offset x. ``perp(direction)`` is the index of the offset coordin
 
 from __future__ import annotations
 
+import re
+
 from collections.abc import Iterable
 
 from allocation.results import Allocation, LevelLoad, Pier, ResistanceLine
@@ -41,6 +43,27 @@ def along(direction: Direction) -> int:
 def fmt(value: float, quantity: str, config: ProjectConfig) -> str:
     """An SI value in the project's display units (``"260 plf"``), for descriptions."""
     return format_value(value, quantity, config.display_units)
+
+
+_SI_FORCE = re.compile(r"(-?\d+(?:\.\d+)?(?:e[+-]?\d+)?) N\b")
+_SI_POINT = re.compile(r"\((-?\d+(?:\.\d+)?), (-?\d+(?:\.\d+)?)\) m\b")
+_SI_LENGTH = re.compile(r"(-?\d+(?:\.\d+)?) m\b")
+
+
+def in_display_units(text: str, config: ProjectConfig) -> str:
+    """Rewrite the SI numbers of an allocation condition's text in display units.
+
+    Conditions from ``allocation`` state forces as ``"17126 N"``, points as
+    ``"(12.00, 3.50) m"`` and lengths as ``"2.00 m"``; findings read in the
+    project's units.
+    """
+    text = _SI_FORCE.sub(lambda m: fmt(float(m.group(1)), "force", config), text)
+    text = _SI_POINT.sub(
+        lambda m: f"({fmt(float(m.group(1)), 'length', config)}, "
+        f"{fmt(float(m.group(2)), 'length', config)})",
+        text,
+    )
+    return _SI_LENGTH.sub(lambda m: fmt(float(m.group(1)), "length", config), text)
 
 
 def piers_by_id(allocation: Allocation) -> dict[str, Pier]:

@@ -22,7 +22,7 @@ from __future__ import annotations
 import math
 
 import pytest
-from hypothesis import HealthCheck, Phase, given, settings
+from hypothesis import HealthCheck, given, settings
 from hypothesis import strategies as st
 
 from allocation.allocate import allocate
@@ -149,9 +149,11 @@ def test_rigid_each_case_is_in_equilibrium(plan):  # statics: ΣF along, ΣF acr
     "slivers whose force reaches no wall (flexible ΣF < Vx)",
     strict=True,
 )
-@settings(PROPS, max_examples=10, phases=[Phase.generate])  # no shrinking: xfail
-@given(plan=rect_plans())
-def test_flexible_equilibrium_half_degree_off_axis(plan):  # statics
+@pytest.mark.parametrize(("W", "D"), [(12.0, 8.0), (20.0, 10.0), (30.0, 9.5)])
+def test_flexible_equilibrium_half_degree_off_axis(W, D):  # statics
+    # fixed plans, not hypothesis: a known failure must not write example patches
+    box = ((0.0, 0.0), (W, 0.0), (W, D), (0.0, D))
+    plan = Plan(outline=box, walls=tuple((box[i], box[(i + 1) % 4]) for i in range(4)))
     c, s = math.cos(math.radians(0.5)), math.sin(math.radians(0.5))
     alloc, _ = _run(plan_model(plan, transform=lambda p: (c * p[0] - s * p[1],
                                                           s * p[0] + c * p[1])))

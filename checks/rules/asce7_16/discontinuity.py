@@ -23,7 +23,7 @@ from collections.abc import Callable
 from allocation.results import Allocation, Condition, ConditionKind, DiaphragmPiece
 from checks.findings import Finding, Severity
 from checks.project import ProjectConfig
-from checks.rules._support import along, fmt, level_guids, perp
+from checks.rules._support import along, fmt, in_display_units, level_guids, perp
 from ifc_bridge.model import BuildingModel
 
 __all__ = ["cantilever_limits", "check_discontinuity"]
@@ -53,7 +53,7 @@ def _simple(kind: ConditionKind, sev: Severity, clause: str, title: str):
             clause=clause,
             severity=sev,
             title=title,
-            description=c.detail,
+            description=in_display_units(c.detail, config),
             demand=c.value,
         )
 
@@ -76,7 +76,7 @@ def _non_stacking(c: Condition, allocation, config: ProjectConfig, model) -> Fin
             clause="ASCE 7-16 §12.3.3.3",
             severity=Severity.WARNING,
             title="Shear wall does not stack",
-            description=c.detail,
+            description=in_display_units(c.detail, config),
             demand=c.value,
         )
     d, ax, al = pier.direction, perp(pier.direction), along(pier.direction)
@@ -93,9 +93,10 @@ def _non_stacking(c: Condition, allocation, config: ProjectConfig, model) -> Fin
         )
         text = (
             f"line {ln.id} below is in the wall's plane but its walls cover "
-            f"{ln.wall_extent[0]:.2f}–{ln.wall_extent[1]:.2f} m, not the wall's "
-            f"{min(pier.start[al], pier.end[al]):.2f}–"
-            f"{max(pier.start[al], pier.end[al]):.2f} m"
+            f"{fmt(ln.wall_extent[0], 'length', config)} to "
+            f"{fmt(ln.wall_extent[1], 'length', config)}, not the wall's "
+            f"{fmt(min(pier.start[al], pier.end[al]), 'length', config)} to "
+            f"{fmt(max(pier.start[al], pier.end[al]), 'length', config)}"
         )
         sev = Severity.WARNING
     elif below:
@@ -123,7 +124,7 @@ def _non_stacking(c: Condition, allocation, config: ProjectConfig, model) -> Fin
             f"Wall {pier.name!r} ({pier.guid}) on {pier.storey!r}: {text}; its "
             "shear enters the diaphragm below as a point load. Elements that "
             "support it need the overstrength factor (ASCE 7-16 §12.3.3.3). "
-            f"{c.detail}"
+            f"{in_display_units(c.detail, config)}"
         ),
         demand=c.value,
         unit="N" if c.value is not None else "",
@@ -187,7 +188,7 @@ def _cantilever(
             limit = min(CANTILEVER_MAX, (1.0 if stories <= 1 else 0.67) * W)
         verdict = "exceeds" if Lc > limit else "is within"
         text = (
-            f"{c.detail}. L' = {fmt(Lc, 'length', config)}, W = "
+            f"{in_display_units(c.detail, config)}. L' = {fmt(Lc, 'length', config)}, W = "
             f"{fmt(W, 'length', config)}"
             f"; L' {verdict} the {fmt(limit, 'length', config)} limit"
             f"{' for an open front' if only else ''} of wood structural panel "

@@ -26,7 +26,7 @@ from shapely.geometry.polygon import orient
 from allocation.results import Allocation
 from checks.findings import Finding, Severity
 from checks.project import ProjectConfig
-from checks.rules._support import level_guids
+from checks.rules._support import fmt, level_guids
 from checks.rules.asce7_16.seismic_design_category import seismic_design_category
 from ifc_bridge.model import BuildingModel
 
@@ -211,7 +211,8 @@ def check_reentrant_corners(
                         "re-entrant "
                         "corner(s) with both projections over 15 % of the plan "
                         "dimension; at "
-                        f"({c.point[0]:.2f}, {c.point[1]:.2f}) m the projections are "
+                        f"({fmt(c.point[0], 'length', config)}, "
+                        f"{fmt(c.point[1], 'length', config)}) the projections are "
                         f"{100 * c.ratio[0]:.0f} % (x) and {100 * c.ratio[1]:.0f} % "
                         "(y). Detail "
                         "the corner collectors and chords for it."

@@ -194,3 +194,16 @@ def test_cantilever_id_does_not_depend_on_the_piece_number():
         return check_discontinuity(alloc, config())[0].id
 
     assert one("Roof/D1/X1") == one("Roof/D1/X3")
+
+
+def test_condition_numbers_read_in_display_units():  # NIST SP 811: 1 lbf = 4.4482216152605 N
+    from checks.project import DisplayUnits
+    from checks.rules._support import in_display_units
+
+    class Cfg:  # only display_units is read
+        display_units = DisplayUnits.IMPERIAL
+
+    text = in_display_units("its shear 4448.2216 N enters at (3.048, 6.096) m", Cfg())
+    assert "1.00 kip" in text
+    assert "(10.0 ft, 20.0 ft)" in text
+    assert " N " not in text and ") m" not in text
