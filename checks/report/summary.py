@@ -93,11 +93,13 @@ def render_summary(run, *, units: str, verbose: bool = False) -> Group:
     for level in (Severity.ERROR, Severity.WARNING, Severity.INFO):
         sev.add_row(level.value, str(counts.get(level, 0)))
     parts = [head, levels, sev]
-    if verbose:
-        detail = Table(title="All findings")
-        for col in ("severity", "level", "rule", "title"):
+    shown = [f for f in run.findings if verbose or f.severity is Severity.ERROR]
+    if shown:
+        detail = Table(title="All findings" if verbose else "Errors")
+        for col in ("severity", "level", "rule", "title", "GlobalIds"):
             detail.add_column(col)
-        for f in run.findings:
-            detail.add_row(f.severity.value, Text(f.level), f.rule, Text(f.title))
+        for f in shown:
+            guids = ", ".join(f.guids[:3]) + (" …" if len(f.guids) > 3 else "")
+            detail.add_row(f.severity.value, Text(f.level), f.rule, Text(f.title), guids)
         parts.append(detail)
     return Group(*parts)

@@ -8,7 +8,6 @@ lies along Y at offset x. ``perp(direction)`` is the index of the offset coordin
 from __future__ import annotations
 
 import re
-
 from collections.abc import Iterable
 
 from allocation.results import Allocation, LevelLoad, Pier, ResistanceLine
