@@ -21,6 +21,8 @@ import shapely.affinity
 from numpy.typing import NDArray
 from shapely.geometry import Polygon
 
+from ifc_bridge._relations import attr
+
 __all__ = ["Extrusion", "axis2placement", "body_extrusion", "placement_matrix"]
 
 
@@ -53,27 +55,28 @@ def axis2placement(placement: ifcopenshell.entity_instance) -> NDArray[np.float6
     Returns:
         Homogeneous transformation [file units].
     """
-    loc = placement.Location
+    loc = attr(placement, "Location")
     coords = (
-        tuple(loc.Coordinates)
+        tuple(attr(loc, "Coordinates"))
         if loc is not None and loc.is_a("IfcCartesianPoint")
         else ()
     )
     o = (*coords, 0.0, 0.0, 0.0)[:3]
-    axis = getattr(placement, "Axis", None)
-    ref = placement.RefDirection
-    z = tuple(axis.DirectionRatios) if axis is not None else (0.0, 0.0, 1.0)
-    x = tuple(ref.DirectionRatios) if ref is not None else (1.0, 0.0, 0.0)
+    axis = attr(placement, "Axis", None)
+    ref = attr(placement, "RefDirection")
+    z = tuple(attr(axis, "DirectionRatios")) if axis is not None else (0.0, 0.0, 1.0)
+    x = tuple(attr(ref, "DirectionRatios")) if ref is not None else (1.0, 0.0, 0.0)
     z = (*z, 0.0)[:3] if len(z) == 3 else (0.0, 0.0, 1.0)
     x = (*x, 0.0)[:3]
-    nz = math.sqrt(sum(c * c for c in z))
-    z = tuple(c / nz for c in z)
-    dot = sum(a * b for a, b in zip(x, z, strict=True))
-    x = tuple(a - dot * b for a, b in zip(x, z, strict=True))
-    nx = math.sqrt(sum(c * c for c in x))
+    # written out, in the order sum() over the components would add them
+    nz = math.sqrt(z[0] * z[0] + z[1] * z[1] + z[2] * z[2])
+    z = (z[0] / nz, z[1] / nz, z[2] / nz)
+    dot = x[0] * z[0] + x[1] * z[1] + x[2] * z[2]
+    x = (x[0] - dot * z[0], x[1] - dot * z[1], x[2] - dot * z[2])
+    nx = math.sqrt(x[0] * x[0] + x[1] * x[1] + x[2] * x[2])
     if nx <= 1e-12:
         return ifcopenshell.util.placement.get_axis2placement(placement)
-    x = tuple(c / nx for c in x)
+    x = (x[0] / nx, x[1] / nx, x[2] / nx)
     y = (
         z[1] * x[2] - z[2] * x[1],
         z[2] * x[0] - z[0] * x[2],
@@ -110,8 +113,8 @@ def placement_matrix(
     if found is not None:
         return found
     if placement.is_a("IfcLocalPlacement"):
-        parent = placement_matrix(placement.PlacementRelTo, cache)
-        m = parent @ axis2placement(placement.RelativePlacement)
+        parent = placement_matrix(attr(placement, "PlacementRelTo"), cache)
+        m = parent @ axis2placement(attr(placement, "RelativePlacement"))
     else:
         m = ifcopenshell.util.placement.get_local_placement(placement)
     cache[placement.id()] = m

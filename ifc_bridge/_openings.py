@@ -7,7 +7,7 @@ wall. Doors and windows that fill no opening are matched to walls by plan positi
 
 from __future__ import annotations
 
-from collections.abc import Mapping
+from collections.abc import Mapping, Sequence
 from dataclasses import dataclass
 
 import ifcopenshell
@@ -17,6 +17,7 @@ from numpy.typing import NDArray
 from ifc_bridge._centreline import Centreline
 from ifc_bridge._direct import body_extrusion
 from ifc_bridge._geometry import Mesh
+from ifc_bridge._relations import attr
 from ifc_bridge.model import ImportIssue, IssueSeverity, Opening
 
 __all__ = ["WallOpenings", "opening_points", "wall_openings"]
@@ -66,6 +67,8 @@ def wall_openings(
     scale: float,
     cache: dict[int, NDArray[np.float64]],
     path: str,
+    openings: Sequence[ifcopenshell.entity_instance] | None = None,
+    fills: Mapping[int, Sequence[ifcopenshell.entity_instance]] | None = None,
 ) -> WallOpenings:
     """Openings voiding a wall, as intervals along its centreline.
 
@@ -80,6 +83,8 @@ def wall_openings(
         scale: Length unit scale [m per file unit].
         cache: Placement memo.
         path: File name, for messages.
+        openings: The wall's openings in ``HasOpenings`` order, when known.
+        fills: Opening id -> the doors and windows filling it, when known.
 
     Returns:
         The openings and issues.
@@ -88,8 +93,11 @@ def wall_openings(
     issues: list[ImportIssue] = []
     start = np.asarray(line.start)
     d = line.direction
-    for rel in getattr(wall, "HasOpenings", ()) or ():
-        op = rel.RelatedOpeningElement
+    if openings is None:
+        openings = [
+            r.RelatedOpeningElement for r in getattr(wall, "HasOpenings", ()) or ()
+        ]
+    for op in openings:
         pts = opening_points(op, meshes, scale, cache)
         if pts is None:
             msg = (
@@ -123,17 +131,18 @@ def wall_openings(
                 )
             )
             continue
-        fills = tuple(
-            sorted(r.RelatedBuildingElement.GlobalId for r in op.HasFillings or ())
-        )
+        if fills is None:
+            filling = [r.RelatedBuildingElement for r in op.HasFillings or ()]
+        else:
+            filling = fills.get(op.id(), ())
         out.append(
             Opening(
-                guid=op.GlobalId,
+                guid=attr(op, "GlobalId"),
                 start=s0,
                 end=s1,
                 bottom=z0 - base,
                 top=z1 - base,
-                filled_by=fills,
+                filled_by=tuple(sorted(attr(e, "GlobalId") for e in filling)),
             )
         )
     out.sort(key=lambda o: (o.start, o.end, o.guid))

@@ -22,12 +22,12 @@ import ifcopenshell.util.element
 __all__ = ["Relations", "attr", "build_relations"]
 
 _ABSENT = 0xFFFFFFFF  # get_argument_index of an attribute the entity does not have
-_INDEX: dict[tuple[str, str], int] = {}
+_INDEX: dict[str, dict[str, int]] = {}  # "IFC4.IfcWall" -> attribute -> position
 
 Entity = ifcopenshell.entity_instance
 
 
-def attr(inst: Entity, name: str) -> Any:
+def attr(inst: Entity, name: str, *default: Any) -> Any:
     """Forward attribute ``name`` of an entity, read by its position in the schema.
 
     Common practice: equal to ``getattr(inst, name)`` (IFC attributes are ordered,
@@ -38,17 +38,19 @@ def attr(inst: Entity, name: str) -> Any:
     Args:
         inst: An IFC entity instance.
         name: Attribute name.
+        *default: Value for an absent attribute, as ``getattr``'s third argument.
 
     Returns:
         The attribute value, as ``getattr`` would return it.
     """
-    key = (inst.is_a(True), name)
-    index = _INDEX.get(key)
+    by_name = _INDEX.get(inst.is_a(True))
+    if by_name is None:
+        by_name = _INDEX[inst.is_a(True)] = {}
+    index = by_name.get(name)
     if index is None:
-        index = inst.get_argument_index(name)
-        _INDEX[key] = index
+        index = by_name[name] = inst.get_argument_index(name)
     if index == _ABSENT:
-        return getattr(inst, name)
+        return getattr(inst, name, *default)
     return inst.get_argument(index)
 
 
@@ -62,6 +64,7 @@ class Relations:
         materials: Element id -> RelatingMaterial of each IfcRelAssociatesMaterial.
         definitions: Object id -> property definitions of its IfcRelDefinesByProperties.
         voids: Host id -> RelatedOpeningElement of each IfcRelVoidsElement.
+        fills: Opening id -> RelatedBuildingElement of each IfcRelFillsElement.
         memo: Results shared by many elements (per storey, type, material, pset).
     """
 
@@ -70,6 +73,7 @@ class Relations:
     materials: dict[int, list[Entity]]
     definitions: dict[int, list[Entity]]
     voids: dict[int, list[Entity]]
+    fills: dict[int, list[Entity]]
     memo: dict[tuple[str, int], Any] = field(default_factory=dict)
 
     def storey_of(self, element: Entity) -> Entity | None:
@@ -93,7 +97,7 @@ class Relations:
             self.memo[key] = container
         return self.memo[key]
 
-    def type_of(self, element: Entity) -> Entity | None | bool:
+    def type_of(self, element: Entity) -> Entity | bool | None:
         """The element's IfcTypeObject, None when untyped, False when typed twice."""
         found = self.types.get(element.id(), ())
         if len(found) > 1:
@@ -120,8 +124,9 @@ def build_relations(ifc: ifcopenshell.file) -> Relations:
     """Read the objectified relationships of a file into maps by entity id.
 
     Common practice: IfcRelContainedInSpatialStructure, IfcRelDefinesByType,
-    IfcRelAssociatesMaterial, IfcRelDefinesByProperties, IfcRelVoidsElement
-    (IFC 4.3 §5.1.2, §5.4.3) are the inverse attributes the readers use.
+    IfcRelAssociatesMaterial, IfcRelDefinesByProperties, IfcRelVoidsElement,
+    IfcRelFillsElement (IFC 4.3 §5.1.2, §5.4.3) are the inverse attributes the
+    readers use.
 
     Args:
         ifc: The open file.
@@ -130,7 +135,7 @@ def build_relations(ifc: ifcopenshell.file) -> Relations:
         The maps.
     """
     maps: dict[str, dict[int, list[Entity]]] = {
-        k: defaultdict(list) for k in ("c", "t", "m", "d", "v")
+        k: defaultdict(list) for k in ("c", "t", "m", "d", "v", "f")
     }
     for rel in ifc.by_type("IfcRelContainedInSpatialStructure"):
         _append(maps["c"], attr(rel, "RelatedElements"), attr(rel, "RelatingStructure"))
@@ -140,7 +145,9 @@ def build_relations(ifc: ifcopenshell.file) -> Relations:
         _append(maps["m"], attr(rel, "RelatedObjects"), attr(rel, "RelatingMaterial"))
     for rel in ifc.by_type("IfcRelDefinesByProperties"):
         _append(
-            maps["d"], attr(rel, "RelatedObjects"), attr(rel, "RelatingPropertyDefinition")
+            maps["d"],
+            attr(rel, "RelatedObjects"),
+            attr(rel, "RelatingPropertyDefinition"),
         )
     for rel in ifc.by_type("IfcRelVoidsElement"):
         _append(
@@ -148,10 +155,17 @@ def build_relations(ifc: ifcopenshell.file) -> Relations:
             attr(rel, "RelatingBuildingElement"),
             attr(rel, "RelatedOpeningElement"),
         )
+    for rel in ifc.by_type("IfcRelFillsElement"):
+        _append(
+            maps["f"],
+            attr(rel, "RelatingOpeningElement"),
+            attr(rel, "RelatedBuildingElement"),
+        )
     return Relations(
         containers=dict(maps["c"]),
         types=dict(maps["t"]),
         materials=dict(maps["m"]),
         definitions=dict(maps["d"]),
         voids=dict(maps["v"]),
+        fills=dict(maps["f"]),
     )

@@ -12,10 +12,11 @@ from __future__ import annotations
 
 import dataclasses
 from collections.abc import Mapping
+from typing import Any
 
 from ifc_bridge.model import Level, Opening, WallSegment
 
-__all__ = ["BASE_TOL", "TOP_TOL", "split_wall", "supported_level"]
+__all__ = ["BASE_TOL", "TOP_TOL", "split_fields", "split_wall", "supported_level"]
 
 BASE_TOL = 0.05  # [m]
 TOP_TOL = 0.15  # [m]
@@ -83,26 +84,54 @@ def split_wall(
     Returns:
         Segments bottom-up, ``part`` 0, 1, ..., each with its ``level`` set.
     """
-    base, top = whole.base_elevation, whole.top_elevation
+    fields = {f.name: getattr(whole, f.name) for f in dataclasses.fields(whole)}
+    return split_fields(
+        fields, diaphragm_levels, storey_elevation=storey_elevation, reach=reach
+    )
+
+
+def split_fields(
+    whole: dict[str, Any],
+    diaphragm_levels: tuple[Level, ...],
+    *,
+    storey_elevation: float,
+    reach: Mapping[str, float] | None = None,
+) -> tuple[WallSegment, ...]:
+    """:func:`split_wall` of a wall given as its WallSegment field values.
+
+    Common practice: as :func:`split_wall`; each segment is built once.
+
+    Args:
+        whole: WallSegment keyword arguments of the whole wall.
+        diaphragm_levels: Diaphragm levels sorted by elevation.
+        storey_elevation: Elevation of the storey it stands on [m].
+        reach: Level name -> tolerance above a segment top [m].
+
+    Returns:
+        Segments bottom-up, as :func:`split_wall` returns them.
+    """
+    base, top = whole["base_elevation"], whole["top_elevation"]
     low = max(base, storey_elevation) + BASE_TOL
     cuts = [lv for lv in diaphragm_levels if low < lv.elevation < top - TOP_TOL]
     bounds = [base, *(lv.elevation for lv in cuts), top]
-    storeys = [whole.storey, *(lv.name for lv in cuts)]
+    storeys = [whole["storey"], *(lv.name for lv in cuts)]
     floors = [max(base, storey_elevation), *(lv.elevation for lv in cuts)]
     parts = []
     for k in range(len(bounds) - 1):
         lo, hi = bounds[k], bounds[k + 1]
         parts.append(
-            dataclasses.replace(
-                whole,
-                part=k,
-                storey=storeys[k],
-                level=supported_level(
-                    diaphragm_levels, above=floors[k], top=hi, reach=reach
-                ),
-                base_elevation=lo,
-                top_elevation=hi,
-                openings=_rebase(whole.openings, lo - base, hi - base),
+            WallSegment(
+                **{
+                    **whole,
+                    "part": k,
+                    "storey": storeys[k],
+                    "level": supported_level(
+                        diaphragm_levels, above=floors[k], top=hi, reach=reach
+                    ),
+                    "base_elevation": lo,
+                    "top_elevation": hi,
+                    "openings": _rebase(whole["openings"], lo - base, hi - base),
+                }
             )
         )
     return tuple(parts)

@@ -16,6 +16,7 @@ from numpy.typing import NDArray
 
 from ifc_bridge._geometry import Mesh
 from ifc_bridge._openings import opening_points
+from ifc_bridge._relations import Relations
 from ifc_bridge.model import ImportIssue, IssueSeverity
 
 __all__ = ["unfilled_inserts", "unfilled_issues"]
@@ -23,10 +24,15 @@ __all__ = ["unfilled_inserts", "unfilled_issues"]
 _REACH = 0.1  # [m] beyond the wall faces
 
 
-def unfilled_inserts(ifc: ifcopenshell.file) -> list[ifcopenshell.entity_instance]:
+def unfilled_inserts(
+    ifc: ifcopenshell.file, relations: Relations | None = None
+) -> list[ifcopenshell.entity_instance]:
     """IfcDoor and IfcWindow entities that fill no opening (no IfcRelFillsElement)."""
     found = ifc.by_type("IfcDoor") + ifc.by_type("IfcWindow")
-    return [e for e in found if not (getattr(e, "FillsVoids", None) or ())]
+    if relations is None:
+        return [e for e in found if not (getattr(e, "FillsVoids", None) or ())]
+    filling = {e.id() for group in relations.fills.values() for e in group}
+    return [e for e in found if e.id() not in filling]
 
 
 def _host(

@@ -15,6 +15,7 @@ import numpy as np
 from numpy.typing import NDArray
 
 from ifc_bridge._direct import placement_matrix
+from ifc_bridge._relations import attr
 
 __all__ = ["AxisInfo", "wall_axis"]
 
@@ -40,10 +41,10 @@ def _points(
 ) -> tuple[list[list[float]] | None, bool]:
     """2D points of a curve and whether it has curved parts."""
     if curve.is_a("IfcPolyline"):
-        return [list(p.Coordinates[:2]) for p in curve.Points], False
+        return [list(attr(p, "Coordinates")[:2]) for p in attr(curve, "Points")], False
     if curve.is_a("IfcIndexedPolyCurve"):
-        coords = [list(c[:2]) for c in curve.Points.CoordList]
-        curved = any(s.is_a("IfcArcIndex") for s in curve.Segments or ())
+        coords = [list(c[:2]) for c in attr(attr(curve, "Points"), "CoordList")]
+        curved = any(s.is_a("IfcArcIndex") for s in attr(curve, "Segments") or ())
         return coords, curved
     if curve.is_a("IfcTrimmedCurve"):
         basis = curve.BasisCurve
@@ -99,19 +100,20 @@ def wall_axis(
     Returns:
         Axis information; ``direction`` None when there is no usable Axis.
     """
+    shape = attr(wall, "Representation")
     reps = [
         r
-        for r in (wall.Representation.Representations if wall.Representation else ())
-        if (r.RepresentationIdentifier or "") == "Axis"
+        for r in (attr(shape, "Representations") if shape else ())
+        if (attr(r, "RepresentationIdentifier") or "") == "Axis"
     ]
     if not reps:
         return AxisInfo(direction=None, curved=False)
-    items = reps[0].Items
+    items = attr(reps[0], "Items")
     if any(i.is_a("IfcMappedItem") for i in items):
         resolved = ifcopenshell.util.representation.resolve_items(reps[0])
     else:  # the common case, without resolve_items' overhead
         resolved = [{"item": i, "matrix": None} for i in items]
-    m0 = placement_matrix(wall.ObjectPlacement, cache)
+    m0 = placement_matrix(attr(wall, "ObjectPlacement"), cache)
     for r in resolved:
         pts, curved = _points(r["item"])
         if pts is None or len(pts) < 2:

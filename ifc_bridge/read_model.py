@@ -17,6 +17,7 @@ import ifcopenshell
 
 from ifc_bridge._diaphragms import build_diaphragms, underside_reach
 from ifc_bridge._geometry import mesh_elements
+from ifc_bridge._relations import Relations, build_relations
 from ifc_bridge._unfilled import unfilled_inserts, unfilled_issues
 from ifc_bridge.errors import IfcContentError
 from ifc_bridge.model import BuildingModel
@@ -34,15 +35,18 @@ _LOG = logging.getLogger(__name__)
 Progress = Callable[[str, int, int], None]
 
 
-def _to_mesh(ifc: ifcopenshell.file, walls: list[ifcopenshell.entity_instance]) -> list:
+def _to_mesh(
+    ifc: ifcopenshell.file,
+    walls: list[ifcopenshell.entity_instance],
+    relations: Relations,
+    inserts: list[ifcopenshell.entity_instance],
+) -> list:
     slabs = ifc.by_type("IfcSlab")
     roofs = ifc.by_type("IfcRoof")
     openings = []
     for host in (*walls, *slabs, *roofs):
-        openings.extend(
-            rel.RelatedOpeningElement for rel in getattr(host, "HasOpenings", ()) or ()
-        )
-    return [*walls, *slabs, *openings, *unfilled_inserts(ifc)]
+        openings.extend(relations.voids.get(host.id(), ()))
+    return [*walls, *slabs, *openings, *inserts]
 
 
 def _project(ifc: ifcopenshell.file) -> tuple[str, str]:
@@ -95,7 +99,11 @@ def read_model(
     if not walls:
         msg = f"{source}: has no IfcWall; model the walls as IfcWall (not proxies)"
         raise IfcContentError(msg)
-    meshes = mesh_elements(ifc, _to_mesh(ifc, walls), progress=progress)
+    relations = build_relations(ifc)
+    inserts = unfilled_inserts(ifc, relations)
+    meshes = mesh_elements(
+        ifc, _to_mesh(ifc, walls, relations, inserts), progress=progress
+    )
     cache: dict = {}
     plans, slab_issues = read_slab_plans(
         ifc, source, scale=scale, levels=storeys, meshes=meshes, cache=cache
@@ -114,11 +122,12 @@ def read_model(
         meshes=meshes,
         cache=cache,
         reach=underside_reach(diaphragms, plans, levels),
+        relations=relations,
     )
     if progress is not None:
         progress("walls", len(walls), len(walls))
     insert_issues = unfilled_issues(
-        unfilled_inserts(ifc),
+        inserts,
         read.plans,
         meshes=meshes,
         scale=scale,

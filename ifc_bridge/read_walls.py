@@ -12,7 +12,6 @@ from collections.abc import Mapping
 from dataclasses import dataclass
 
 import ifcopenshell
-import ifcopenshell.util.element
 import numpy as np
 from numpy.typing import NDArray
 
@@ -20,8 +19,9 @@ from ifc_bridge._centreline import Centreline, centreline
 from ifc_bridge._direct import body_extrusion
 from ifc_bridge._geometry import Mesh
 from ifc_bridge._openings import wall_openings
+from ifc_bridge._relations import Relations, attr, build_relations
 from ifc_bridge._semantics import WallSemantics, wall_semantics
-from ifc_bridge._split import split_wall
+from ifc_bridge._split import split_fields
 from ifc_bridge._wall_axis import wall_axis
 from ifc_bridge.model import ImportIssue, IssueSeverity, Level, WallSegment
 from ifc_bridge.read_slabs import level_below
@@ -124,10 +124,8 @@ def _read_one(
     ctx: _Context,
 ) -> tuple[str, tuple[WallSegment, ...], WallPlan | None, list[ImportIssue]]:
     issues: list[ImportIssue] = []
-    guid = wall.GlobalId
-    container = ifcopenshell.util.element.get_container(
-        wall, ifc_class="IfcBuildingStorey"
-    )
+    guid = attr(wall, "GlobalId")
+    container = ctx.relations.storey_of(wall)
     storey = ctx.name_of.get(container.id(), "") if container is not None else ""
     body = _body(wall, ctx.meshes, ctx.scale, ctx.cache)
     if body is None:
@@ -161,7 +159,7 @@ def _read_one(
             None,
             [_issue("wall_no_geometry", IssueSeverity.ERROR, msg, guid, storey)],
         )
-    sem = wall_semantics(wall, ctx.scale)
+    sem = wall_semantics(wall, ctx.scale, ctx.relations)
     thickness = _thickness(wall, line, sem, axis.curved, ctx.path, issues)
     if not storey:
         lv = level_below(ctx.levels, base)
@@ -183,30 +181,42 @@ def _read_one(
         scale=ctx.scale,
         cache=ctx.cache,
         path=ctx.path,
+        openings=ctx.relations.openings_of(wall),
+        fills=ctx.relations.fills,
     )
     issues.extend(ops.issues)
-    whole = WallSegment(
-        guid=guid,
-        name=sem.name,
-        storey=storey,
-        level="",
-        base_elevation=base,
-        top_elevation=top,
-        start=line.start,
-        end=line.end,
-        thickness=thickness,
-        openings=ops.openings,
-        type_name=sem.type_name,
-        materials=sem.materials,
-        predefined_type=sem.predefined_type,
-        properties=sem.properties,
-        curved=axis.curved,
-    )
-    storey_elevation = next(lv.elevation for lv in ctx.levels if lv.name == storey)
-    parts = split_wall(
+    whole = {  # the WallSegment of the whole wall, built once per part
+        "guid": guid,
+        "name": sem.name,
+        "storey": storey,
+        "level": "",
+        "part": 0,
+        "base_elevation": base,
+        "top_elevation": top,
+        "start": line.start,
+        "end": line.end,
+        "thickness": thickness,
+        "openings": ops.openings,
+        "type_name": sem.type_name,
+        "materials": sem.materials,
+        "predefined_type": sem.predefined_type,
+        "properties": sem.properties,
+        "is_shear_wall": False,
+        "assembly": "",
+        "curved": axis.curved,
+    }
+    storey_elevation = ctx.elevation_of[storey]
+    parts = split_fields(
         whole, ctx.diaphragm_levels, storey_elevation=storey_elevation, reach=ctx.reach
     )
     return storey, parts, WallPlan(guid=guid, line=line, base=base, top=top), issues
+
+
+def _first_elevations(levels: tuple[Level, ...]) -> dict[str, float]:
+    out: dict[str, float] = {}
+    for lv in levels:
+        out.setdefault(lv.name, lv.elevation)  # as next(...) over the levels finds it
+    return out
 
 
 @dataclass(frozen=True, slots=True, kw_only=True)
@@ -219,6 +229,8 @@ class _Context:
     meshes: Mapping[int, Mesh]
     cache: dict[int, NDArray[np.float64]]
     reach: Mapping[str, float]
+    relations: Relations
+    elevation_of: Mapping[str, float]
 
 
 def read_walls(
@@ -231,6 +243,7 @@ def read_walls(
     meshes: Mapping[int, Mesh],
     cache: dict[int, NDArray[np.float64]],
     reach: Mapping[str, float] | None = None,
+    relations: Relations | None = None,
 ) -> WallsRead:
     """Wall segments of every IfcWall, split at the diaphragm levels they pass.
 
@@ -247,6 +260,7 @@ def read_walls(
         cache: Placement memo.
         reach: Level name -> how far below a level a wall top may stop and still
             support it (slab depth + 0.05 m, at least 0.15 m) [m].
+        relations: The file's relationship maps (built here when not given).
 
     Returns:
         Segments, the storey of every wall, plan rectangles and issues.
@@ -260,6 +274,8 @@ def read_walls(
         meshes=meshes,
         cache=cache,
         reach=dict(reach or {}),
+        relations=relations if relations is not None else build_relations(ifc),
+        elevation_of=_first_elevations(levels),
     )
     segments: list[WallSegment] = []
     storeys: list[tuple[str, str]] = []
@@ -267,7 +283,7 @@ def read_walls(
     issues: list[ImportIssue] = []
     for wall in ifc.by_type("IfcWall"):
         storey, parts, plan, found = _read_one(wall, ctx)
-        storeys.append((wall.GlobalId, storey))
+        storeys.append((parts[0].guid if parts else attr(wall, "GlobalId"), storey))
         segments.extend(parts)
         issues.extend(found)
         if plan is not None:

@@ -57,8 +57,17 @@ def good(tmp_path: Path) -> Path:
 
 
 def _check(capsys, model: Path, cfg: Path, out: Path, *extra: str):
-    return _cli(capsys, "check", str(model), "--config", str(cfg), "--out", str(out),
-                "-q", *extra)  # fmt: skip
+    return _cli(
+        capsys,
+        "check",
+        str(model),
+        "--config",
+        str(cfg),
+        "--out",
+        str(out),
+        "-q",
+        *extra,
+    )
 
 
 def _results(out: Path) -> dict:
@@ -85,7 +94,14 @@ def test_empty_file(capsys, tmp_path, cfg, command):
     path = tmp_path / "empty.ifc"
     path.write_bytes(b"")
     argv = {
-        "check": ["check", str(path), "--config", str(cfg), "--out", str(tmp_path / "o")],
+        "check": [
+            "check",
+            str(path),
+            "--config",
+            str(cfg),
+            "--out",
+            str(tmp_path / "o"),
+        ],
         "inspect": ["inspect", str(path)],
         "init": ["init", str(path), "-o", str(tmp_path / "new.toml")],
     }[command]
@@ -138,8 +154,17 @@ def test_debug_shows_the_traceback(tmp_path, cfg):
     from ifc_bridge.errors import IfcFileError
 
     with pytest.raises(IfcFileError):
-        main(["--debug", "check", str(path), "--config", str(cfg), "--out",
-              str(tmp_path / "o")])  # fmt: skip
+        main(
+            [
+                "--debug",
+                "check",
+                str(path),
+                "--config",
+                str(cfg),
+                "--out",
+                str(tmp_path / "o"),
+            ]
+        )
 
 
 # ------------------------------------------------------------------ storeys and slabs
@@ -189,7 +214,9 @@ def test_no_slabs_is_bad_input(capsys, tmp_path, cfg):
 
 
 def test_diaphragm_level_named_without_slab(capsys, tmp_path):
-    text = CONFIG_TOML.replace("[seismic]", '[levels]\ndiaphragms = ["Roof"]\n\n[seismic]')
+    text = CONFIG_TOML.replace(
+        "[seismic]", '[levels]\ndiaphragms = ["Roof"]\n\n[seismic]'
+    )
     cfg = write_config(tmp_path / "named.toml", text)
     box = ifc_box(slabs=False)
     path = box.write(tmp_path / "noslabs.ifc")
@@ -203,8 +230,9 @@ def test_diaphragm_level_named_without_slab(capsys, tmp_path):
 
 def test_zero_length_wall_is_an_error_finding(capsys, tmp_path, cfg):
     box = ifc_box()
-    zero = add_wall(box, box.storeys[0], (6.0, 4.0), (6.0, 4.0), base=0.0, height=2.8,
-                    name="Zero")  # fmt: skip
+    zero = add_wall(
+        box, box.storeys[0], (6.0, 4.0), (6.0, 4.0), base=0.0, height=2.8, name="Zero"
+    )
     path = box.write(tmp_path / "zero.ifc")
     code, err = _check(capsys, path, cfg, tmp_path / "out")
     assert (code, err) == (1, [])  # ran; an error-severity finding
@@ -222,8 +250,9 @@ def test_zero_length_wall_is_an_error_finding(capsys, tmp_path, cfg):
 )
 def test_near_zero_length_shear_wall_is_reported(capsys, tmp_path, cfg):
     box = ifc_box()
-    stub = add_wall(box, box.storeys[0], (6.0, 4.0), (6.001, 4.0), base=0.0,
-                    height=2.8, name="Stub")  # fmt: skip  # 1 mm long, typed SHEAR
+    stub = add_wall(
+        box, box.storeys[0], (6.0, 4.0), (6.001, 4.0), base=0.0, height=2.8, name="Stub"
+    )  # 1 mm long, typed SHEAR
     path = box.write(tmp_path / "stub.ifc")
     code, err = _check(capsys, path, cfg, tmp_path / "out")
     assert err == []
@@ -240,22 +269,39 @@ def test_near_zero_length_shear_wall_is_reported(capsys, tmp_path, cfg):
 def test_duplicate_walls_are_reported(capsys, tmp_path, cfg):
     box = ifc_box()
     south = box.walls[0]
-    copy = add_wall(box, box.storeys[0], (0.0, 0.0), (12.0, 0.0), base=0.0,
-                    height=2.8, name="South copy")  # fmt: skip  # same place, new GUID
+    copy = add_wall(
+        box,
+        box.storeys[0],
+        (0.0, 0.0),
+        (12.0, 0.0),
+        base=0.0,
+        height=2.8,
+        name="South copy",
+    )  # same place, new GUID
     path = box.write(tmp_path / "dup.ifc")
     code, err = _check(capsys, path, cfg, tmp_path / "out")
     assert err == []
     assert code in (0, 1)
     pair = {south.GlobalId, copy.GlobalId}
-    topics = [t for t in _topics(tmp_path / "out") if copy.GlobalId in _selected(t)
-              and _selected(t) <= pair]  # fmt: skip
+    topics = [
+        t
+        for t in _topics(tmp_path / "out")
+        if copy.GlobalId in _selected(t) and _selected(t) <= pair
+    ]
     assert topics, "no finding names the duplicated wall"
 
 
 def test_duplicate_global_ids_are_refused(capsys, tmp_path, cfg):
     box = ifc_box()
-    interior = add_wall(box, box.storeys[0], (0.0, 4.0), (12.0, 4.0), base=0.0,
-                        height=2.8, name="Interior")  # fmt: skip
+    interior = add_wall(
+        box,
+        box.storeys[0],
+        (0.0, 4.0),
+        (12.0, 4.0),
+        base=0.0,
+        height=2.8,
+        name="Interior",
+    )
     box.same_guid.append((box.walls[0], interior))  # ISO 16739: GlobalId is unique
     path = box.write(tmp_path / "dupguid.ifc")
     code, err = _check(capsys, path, cfg, tmp_path / "out")
@@ -379,19 +425,29 @@ def test_raw_latin1_byte_in_a_name_is_not_lost_silently(capsys, tmp_path, cfg):
     ("old", "new", "key"),
     [
         ('floor = "15 psf"', "floor = 15", "loads.floor"),  # bare number: no unit
-        ('line_tolerance = "0.5 m"', 'line_tolerance = "0.5"', "analysis.line_tolerance"),
+        (
+            'line_tolerance = "0.5 m"',
+            'line_tolerance = "0.5"',
+            "analysis.line_tolerance",
+        ),
         ("SDS = 1.0", "SDS = nan", "seismic.SDS"),
         ("SDS = 1.0", "SDS = inf", "seismic.SDS"),
         ('floor = "15 psf"', 'floor = "nan psf"', "loads.floor"),
         ('floor = "15 psf"', 'floor = "-15 psf"', "loads.floor"),
         ("R = 6.5", "R = -6.5", "seismic.R"),
         ('TL = "8 s"', 'TL = "-8 s"', "seismic.TL"),
-        ('unit_shear_capacity = "340 plf"', 'unit_shear_capacity = "-340 plf"',
-         "assemblies[0].unit_shear_capacity"),
-        ('unit_shear_capacity = "340 plf"', 'unit_shear_capacity = "340 psf"',
-         "assemblies[0].unit_shear_capacity"),  # wrong dimension
+        (
+            'unit_shear_capacity = "340 plf"',
+            'unit_shear_capacity = "-340 plf"',
+            "assemblies[0].unit_shear_capacity",
+        ),
+        (
+            'unit_shear_capacity = "340 plf"',
+            'unit_shear_capacity = "340 psf"',
+            "assemblies[0].unit_shear_capacity",
+        ),  # wrong dimension
     ],
-)  # fmt: skip
+)
 def test_bad_config_values(capsys, tmp_path, good, old, new, key):
     assert old in CONFIG_TOML
     cfg = write_config(tmp_path / "bad.toml", CONFIG_TOML.replace(old, new))
@@ -504,8 +560,9 @@ def test_previous_is_broken_json(capsys, tmp_path, cfg, good):
     _one_line(err, prev)
 
 
-@pytest.mark.parametrize("name", ["../../evil.txt", "/etc/evil", "a\\..\\..\\evil",
-                                  "C:/evil"])  # fmt: skip
+@pytest.mark.parametrize(
+    "name", ["../../evil.txt", "/etc/evil", "a\\..\\..\\evil", "C:/evil"]
+)
 def test_previous_zip_slip(capsys, tmp_path, cfg, good, name):
     prev = tmp_path / "slip.bcf"
     with zipfile.ZipFile(prev, "w") as z:

@@ -45,20 +45,97 @@ _KEYS = sorted(
         *BASE,
         *(k for v in BASE.values() if isinstance(v, dict) for k in v),
         *(k for a in BASE["assemblies"] for k in a),
-        "levels", "base", "diaphragms", "level_forces", "extra", "period", "rho",
-        "display_units", "author", "design_basis", "amplify_torsion", "wall_stiffness",
-        "accidental_eccentricity", "shear_walls", "predefined_type", "bcf", "version",
-        "sheathing", "fastener", "edge_spacing", "nominal_unit_shear", "fc", "fy",
-        "rho_t", "lambda", "Ga", "chord_E", "chord_area", "hold_down_slip", "E", "G",
-        "blocked", "aspect_ratio_limit", "wall_dead_load", "property", "value",
-        "type_name", "material", "Level 2", "Roof", "",
+        "levels",
+        "base",
+        "diaphragms",
+        "level_forces",
+        "extra",
+        "period",
+        "rho",
+        "display_units",
+        "author",
+        "design_basis",
+        "amplify_torsion",
+        "wall_stiffness",
+        "accidental_eccentricity",
+        "shear_walls",
+        "predefined_type",
+        "bcf",
+        "version",
+        "sheathing",
+        "fastener",
+        "edge_spacing",
+        "nominal_unit_shear",
+        "fc",
+        "fy",
+        "rho_t",
+        "lambda",
+        "Ga",
+        "chord_E",
+        "chord_area",
+        "hold_down_slip",
+        "E",
+        "G",
+        "blocked",
+        "aspect_ratio_limit",
+        "wall_dead_load",
+        "property",
+        "value",
+        "type_name",
+        "material",
+        "Level 2",
+        "Roof",
+        "",
     }
-)  # fmt: skip
-_UNITS = ["psf", "kPa", "plf", "N/m", "m", "ft", "in", "s", "deg", "kip", "kN", "psi",
-          "ksi", "kip/in", "in**2", "g", "", "furlong", "m/s", "psf psf", "1/0"]  # fmt: skip
-_WORDS = ["elf", "given", "flexible", "rigid", "envelope", "length", "assembly", "ASD",
-          "LRFD", "imperial", "si", "2.1", "3.0", "wood_structural_panel", "concrete",
-          "15/32 Structural I", "10d common", "SW*", "nan", "inf", "-", "", "__import__"]  # fmt: skip
+)
+_UNITS = [
+    "psf",
+    "kPa",
+    "plf",
+    "N/m",
+    "m",
+    "ft",
+    "in",
+    "s",
+    "deg",
+    "kip",
+    "kN",
+    "psi",
+    "ksi",
+    "kip/in",
+    "in**2",
+    "g",
+    "",
+    "furlong",
+    "m/s",
+    "psf psf",
+    "1/0",
+]
+_WORDS = [
+    "elf",
+    "given",
+    "flexible",
+    "rigid",
+    "envelope",
+    "length",
+    "assembly",
+    "ASD",
+    "LRFD",
+    "imperial",
+    "si",
+    "2.1",
+    "3.0",
+    "wood_structural_panel",
+    "concrete",
+    "15/32 Structural I",
+    "10d common",
+    "SW*",
+    "nan",
+    "inf",
+    "-",
+    "",
+    "__import__",
+]
 
 _numbers = st.one_of(
     st.integers(-(10**20), 10**20),
@@ -180,8 +257,19 @@ def bcf_seeds(tmp_path_factory) -> dict[str, bytes]:
     seeds = {}
     for version in ("2.1", "3.0"):
         out = root / version
-        code = main(["check", str(model), "--config", str(cfg), "--out", str(out),
-                     "--bcf-version", version, "-q"])  # fmt: skip
+        code = main(
+            [
+                "check",
+                str(model),
+                "--config",
+                str(cfg),
+                "--out",
+                str(out),
+                "--bcf-version",
+                version,
+                "-q",
+            ]
+        )
         assert code == 0
         seeds[version] = (out / "findings.bcf").read_bytes()
         assert read_topics(out / "findings.bcf").topics  # the seed itself reads
@@ -201,23 +289,41 @@ def _zip(members: list[tuple[str, bytes]]) -> bytes:
     return buf.getvalue()
 
 
-_ODD_NAMES = ["../evil", "/abs/markup.bcf", "a\\b", "C:/x", "x/../../y", "dir/",
-              "só/markup.bcf", "x" * 300, "bcf.version", "a/b/markup.bcf",
-              "nul\x00name", " /markup.bcf", "t/viewpoint.bcfv", "t/snapshot.png"]  # fmt: skip
+_ODD_NAMES = [
+    "../evil",
+    "/abs/markup.bcf",
+    "a\\b",
+    "C:/x",
+    "x/../../y",
+    "dir/",
+    "só/markup.bcf",
+    "x" * 300,
+    "bcf.version",
+    "a/b/markup.bcf",
+    "nul\x00name",
+    " /markup.bcf",
+    "t/viewpoint.bcfv",
+    "t/snapshot.png",
+]
 _names = st.text(min_size=1, max_size=20)
 _XMLISH = st.one_of(
     st.binary(max_size=200),
     st.text(max_size=200).map(str.encode),
-    st.sampled_from([
-        b"<Markup/>", b"<Markup><Topic/></Markup>", b'<Version VersionId="9"/>',
-        b'<?xml version="1.0"?><!DOCTYPE x [<!ENTITY e "boom">]><Markup>&e;</Markup>',
-        b'<Markup><Topic Guid="g"><Title>t</Title><CreationDate>yesterday'
-        b"</CreationDate></Topic></Markup>",
-        b"<VisualizationInfo><PerspectiveCamera><CameraViewPoint><X>nan</X>"
-        b"</CameraViewPoint></PerspectiveCamera></VisualizationInfo>",
-        b"\xef\xbb\xbf<", b"<a>" * 50,
-    ]),
-)  # fmt: skip
+    st.sampled_from(
+        [
+            b"<Markup/>",
+            b"<Markup><Topic/></Markup>",
+            b'<Version VersionId="9"/>',
+            b'<?xml version="1.0"?><!DOCTYPE x [<!ENTITY e "boom">]><Markup>&e;</Markup>',
+            b'<Markup><Topic Guid="g"><Title>t</Title><CreationDate>yesterday'
+            b"</CreationDate></Topic></Markup>",
+            b"<VisualizationInfo><PerspectiveCamera><CameraViewPoint><X>nan</X>"
+            b"</CameraViewPoint></PerspectiveCamera></VisualizationInfo>",
+            b"\xef\xbb\xbf<",
+            b"<a>" * 50,
+        ]
+    ),
+)
 
 
 @st.composite
@@ -237,9 +343,13 @@ def _mutated_zip(draw, seeds: dict[str, bytes]) -> bytes:
         gone = set(draw(st.lists(st.sampled_from(names), min_size=1, max_size=4)))
         return _zip([(n, b) for n, b in members if n not in gone])
     if kind == "add":
-        extra = draw(st.lists(st.tuples(
-            st.one_of(st.sampled_from(_ODD_NAMES), _names), _XMLISH),
-            min_size=1, max_size=3))  # fmt: skip
+        extra = draw(
+            st.lists(
+                st.tuples(st.one_of(st.sampled_from(_ODD_NAMES), _names), _XMLISH),
+                min_size=1,
+                max_size=3,
+            )
+        )
         return _zip([*members, *extra])
     xml = [n for n in names if n.endswith((".bcf", ".bcfv", ".version", ".bcfp"))]
     hit = set(draw(st.lists(st.sampled_from(xml), min_size=1, max_size=3)))
@@ -271,9 +381,13 @@ def test_bcf_mutated_zips(bcf_seeds, fuzz_dir, data):
 
 
 @FUZZ
-@given(raw=st.one_of(st.binary(max_size=400), st.builds(
-    lambda m: _zip(m), st.lists(st.tuples(_names, _XMLISH), max_size=4))))
-def test_bcf_random_files(fuzz_dir, raw):  # fmt: skip
+@given(
+    raw=st.one_of(
+        st.binary(max_size=400),
+        st.builds(lambda m: _zip(m), st.lists(st.tuples(_names, _XMLISH), max_size=4)),
+    )
+)
+def test_bcf_random_files(fuzz_dir, raw):
     path = fuzz_dir / "random.bcf"
     path.write_bytes(raw)
     _read_only_bcf_error(path)
