@@ -117,7 +117,9 @@ def _meets(piece: Polygon, support: Support) -> bool:
     )
 
 
-def _cut_across(piece: Polygon, supports: Sequence[Support]) -> list[Polygon]:
+def _cut_across(
+    piece: Polygon, supports: Sequence[Support], tol: float = _EPS
+) -> list[Polygon]:
     u0, v0, u1, v1 = piece.bounds
     ends = sorted(
         {
@@ -128,7 +130,9 @@ def _cut_across(piece: Polygon, supports: Sequence[Support]) -> list[Polygon]:
             for e in span
         }
     )
-    ends = [e for e in ends if u0 + _EPS < e < u1 - _EPS]
+    # a support ending within the line tolerance of the piece's edge reaches it (a
+    # slab edge a few cm off square); cutting there would only make slivers
+    ends = [e for e in ends if u0 + tol < e < u1 - tol]
     if not ends:
         return [piece]
     cuts = MultiLineString([[(e, v0 - 1.0), (e, v1 + 1.0)] for e in ends])
@@ -142,7 +146,9 @@ def _split_by_chords(poly: Polygon, supports: Sequence[Support]) -> list[Polygon
     return _polygons(split(poly, MultiLineString(chords))) if chords else [poly]
 
 
-def split_region(local: Polygon, supports: Sequence[Support]) -> list[Piece]:
+def split_region(
+    local: Polygon, supports: Sequence[Support], tol: float = _EPS
+) -> list[Piece]:
     """Split one region (local frame) by its lines' chords into spanning pieces.
 
     Common practice: each piece spans as a simple beam between the lines at its
@@ -153,13 +159,15 @@ def split_region(local: Polygon, supports: Sequence[Support]) -> list[Piece]:
     Args:
         local: Region outline in the local frame, holes kept [m].
         supports: The lines' chords on this region.
+        tol: Line tolerance [m]: support ends closer than this to the region's
+            edge do not cut it across.
 
     Returns:
         The pieces, ordered by centroid (v, then u), with their supports.
     """
     pieces = []
     for p in _split_by_chords(local, supports):
-        for q in _cut_across(p, supports):
+        for q in _cut_across(p, supports, tol):
             for r in _split_by_chords(q, supports):
                 touching = tuple(
                     sorted((s for s in supports if _contact(r, s)), key=lambda s: s.v)

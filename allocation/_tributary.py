@@ -84,7 +84,7 @@ def make_slots(
                     )
                 )
         local = to_local(region.polygon, direction)
-        for n, piece in enumerate(split_region(local, supports), start=1):
+        for n, piece in enumerate(split_region(local, supports, tol), start=1):
             slots.append(
                 Slot(
                     id=f"{region.id}/{direction.value}{n}",

@@ -96,6 +96,12 @@ def lever_rule(
     return ((lo.line, float(force - up)), (hi.line, float(up)))
 
 
+def _depth(polygon, direction: Direction) -> float:
+    """Extent of a piece across its span direction (perpendicular to the lines) [m]."""
+    x0, y0, x1, y1 = polygon.bounds
+    return (y1 - y0) if direction is Direction.X else (x1 - x0)
+
+
 def _plan_xy(u: float, v: float, direction: Direction) -> tuple[float, float]:
     return (float(u), float(v)) if direction is Direction.X else (float(v), float(u))
 
@@ -106,6 +112,7 @@ def _finish_piece(
     level: str,
     direction: Direction,
     line_guids: dict[LineId, tuple[str, ...]],
+    tol: float,
 ) -> tuple[DiaphragmPiece, list[Condition]]:
     if slot.weight > 0.0:
         u, v = slot.moment_u / slot.weight, slot.moment_v / slot.weight
@@ -144,6 +151,8 @@ def _finish_piece(
                 slot.id,
             )
         ]
+    if len(supports) == 1 and _depth(slot.plan, direction) <= tol:
+        return piece, []  # a slab edge overhanging its line by less than the tolerance
     if len(supports) == 1:
         line = supports[0].line
         detail = (
@@ -337,7 +346,7 @@ def allocate_flexible(
     guids = {ln.id: tuple(p.split("|", 1)[0] for p in ln.piers) for ln in mine}
     pieces, conditions = [], []
     for slot in slots:
-        piece, cond = _finish_piece(slot, scale, name, direction, guids)
+        piece, cond = _finish_piece(slot, scale, name, direction, guids, tol)
         if not physical:  # weights were plan areas
             piece = dataclasses.replace(piece, weight=0.0)
         pieces.append(piece)

@@ -150,14 +150,29 @@ def line_crossing(
     )
     exact = edges[0] if edges and abs(edges[0] - off) <= _SNAP else off
     near = [v for v in edges if abs(v - off) <= tolerance and v != exact]
+    band = _band(line, exact)
     for v in (exact, *near):
-        found = _overlapping(_chords(poly, d, v), line.wall_extent)
+        chords = _chords(poly, d, v)
+        if v == exact and band:
+            # walls slightly off-axis: the line meets the slab over the whole band
+            chords = _merge([*chords, *(c for b in band for c in _chords(poly, d, b))])
+        found = _overlapping(chords, line.wall_extent)
         if found:
             spans = _bridged(found, _chords(Polygon(poly.exterior), d, v))
             return Crossing(
                 diaphragm=diaphragm.id, offset=float(v), segments=found, spans=spans
             )
     return None
+
+
+def _band(line: ResistanceLine, exact: float) -> tuple[float, ...]:
+    """Extra probe offsets across an off-axis line's width (its piers' end points)."""
+    if line.offset_range is None:
+        return ()
+    lo, hi = line.offset_range
+    if hi - lo <= _SNAP:
+        return ()
+    return tuple(v for v in (lo, hi) if abs(v - exact) > _SNAP)
 
 
 def _cluster(piers: list[Pier], direction: Direction, tol: float) -> list[list[Pier]]:
@@ -205,6 +220,10 @@ def _make_line(
         piers=tuple(p.id for p in group),
         wall_extent=(min(a for a, _ in spans), max(b for _, b in spans)),
         wall_length=wall_length,
+        offset_range=(
+            min(perpendicular(c, direction) for p in group for c in (p.start, p.end)),
+            max(perpendicular(c, direction) for p in group for c in (p.start, p.end)),
+        ),
     )
     merged = _merge(spans)
     crossings, collector = [], 0.0

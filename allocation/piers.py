@@ -155,11 +155,11 @@ def _skewed(wall: WallSegment, tolerance: float) -> Condition:
 
 
 def _no_pier(wall: WallSegment, direction: Direction | None) -> Condition:
-    widths = ", ".join(f"{o.width:.3f}" for o in wall.openings)
+    widths = ", ".join(f"{o.width:.3f} m" for o in wall.openings)
+    why = f"openings ({widths}) leave" if wall.openings else "it is too short for"
     detail = (
-        f"shear wall {wall.guid} ({wall.name!r}, {wall.length:.3f} m): openings "
-        f"({widths} m) leave no full-height pier of {MIN_PIER_LENGTH} m or more; "
-        "it resists no shear"
+        f"shear wall {wall.guid} ({wall.name!r}, {wall.length:.3f} m): {why} "
+        f"no full-height pier of {MIN_PIER_LENGTH} m or more; it resists no shear"
     )
     logger.debug(detail)
     guids = tuple(sorted({wall.guid, *(o.guid for o in wall.openings)}))

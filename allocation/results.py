@@ -273,6 +273,8 @@ class ResistanceLine:
         crossings: ``(diaphragm id, crossing length [m])`` for each diaphragm region
             the line cuts.
         collector_length: Crossing length not backed by walls (collectors) [m].
+        offset_range: (min, max) perpendicular coordinate of its piers' end points
+            [m]; wider than a point when walls are slightly off-axis. None = offset.
     """
 
     id: LineId
@@ -284,6 +286,7 @@ class ResistanceLine:
     wall_length: float
     crossings: tuple[tuple[str, float], ...] = ()
     collector_length: float = 0.0
+    offset_range: tuple[float, float] | None = None
 
 
 @dataclass(frozen=True, slots=True, kw_only=True)

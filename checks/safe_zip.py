@@ -15,6 +15,7 @@ import logging
 import re
 import stat
 import zipfile
+import zlib
 from dataclasses import dataclass
 from pathlib import Path
 
@@ -186,6 +187,7 @@ def read_zip_members(
                 EOFError,
                 NotImplementedError,
                 RuntimeError,
+                zlib.error,  # a corrupt deflate stream
             ) as exc:
                 msg = f"{path}: member {info.filename!r} cannot be read ({exc})"
                 raise BcfError(msg) from exc

@@ -35,6 +35,43 @@ def unfilled_inserts(
     return [e for e in found if e.id() not in filling]
 
 
+_MARGIN = 1e-3  # [m]; the prefilter keeps every wall the exact test could accept
+
+
+def _plan_arrays(plans: Sequence[object]) -> dict[str, NDArray[np.float64]]:
+    """Start, direction, length, half-thickness, base and top of every plan."""
+    if not plans:
+        return {}
+    return {
+        "start": np.array([p.line.start for p in plans], dtype=np.float64),
+        "dir": np.array([p.line.direction for p in plans], dtype=np.float64),
+        "length": np.array([p.line.length for p in plans], dtype=np.float64),
+        "half": np.array([p.line.thickness / 2 for p in plans], dtype=np.float64),
+        "base": np.array([p.base for p in plans], dtype=np.float64),
+        "top": np.array([p.top for p in plans], dtype=np.float64),
+    }
+
+
+def _candidates(
+    centre: NDArray[np.float64],
+    z0: float,
+    z1: float,
+    arrays: dict[str, NDArray[np.float64]],
+) -> NDArray[np.intp]:
+    """Indices of the plans that may contain the point: a loose, vectorised test."""
+    if not arrays:
+        return np.zeros(0, dtype=np.intp)
+    rel = centre - arrays["start"]
+    d = arrays["dir"]
+    s = rel[:, 0] * d[:, 0] + rel[:, 1] * d[:, 1]
+    t = np.abs(rel[:, 1] * d[:, 0] - rel[:, 0] * d[:, 1])
+    reach = _REACH + _MARGIN
+    ok = (s >= -reach) & (s <= arrays["length"] + reach)
+    ok &= t <= arrays["half"] + reach
+    ok &= (z0 < arrays["top"] + _MARGIN) & (z1 > arrays["base"] - _MARGIN)
+    return np.flatnonzero(ok)
+
+
 def _host(
     centre: NDArray[np.float64], z0: float, z1: float, plans: Sequence[object]
 ) -> str:
@@ -78,12 +115,15 @@ def unfilled_issues(
         One issue per door or window matched to a wall, plus one for the rest.
     """
     issues, unmatched = [], []
+    arrays = _plan_arrays(plans) if inserts else {}
     for e in inserts:
         pts = opening_points(e, meshes, scale, cache)
         host = ""
         if pts is not None:
             centre = (pts[:, :2].min(axis=0) + pts[:, :2].max(axis=0)) / 2.0
-            host = _host(centre, float(pts[:, 2].min()), float(pts[:, 2].max()), plans)
+            z0, z1 = float(pts[:, 2].min()), float(pts[:, 2].max())
+            near = [plans[i] for i in _candidates(centre, z0, z1, arrays)]
+            host = _host(centre, z0, z1, near)  # the exact test, in file order
         kind = "door" if e.is_a("IfcDoor") else "window"
         if not host:
             unmatched.append(e.GlobalId)

@@ -33,6 +33,7 @@ from checks.rules.asce7_16.redundancy import (
 )
 from checks.rules.asce7_16.seismic_design_category import seismic_design_category
 from checks.rules.asce7_16.unit_shear import PierCheck, check_unit_shear, pier_checks
+from checks.rules.model.duplicate_walls import check_duplicate_walls
 from checks.rules.model.import_issues import check_import_issues
 from checks.rules.model.unmatched_shear_walls import check_unmatched_shear_walls
 from checks.rules.sdpws_2015.aspect_ratio import check_aspect_ratio
@@ -111,6 +112,7 @@ def run_checks(
     findings += check_irregularities(model, allocation, config)
     findings += check_discontinuity(allocation, config, model=model)
     findings += check_redundancy(redundancy, allocation, config)
+    findings += check_duplicate_walls(model)
     findings += check_import_issues(model)
     findings += check_unmatched_shear_walls(
         model, allocated={p.guid for p in allocation.piers if p.direction is not None}

@@ -14,7 +14,6 @@ import copy
 import io
 import tomllib
 import zipfile
-import zlib
 from pathlib import Path
 
 import pytest
@@ -359,10 +358,6 @@ def _mutated_zip(draw, seeds: dict[str, bytes]) -> bytes:
 def _read_only_bcf_error(path: Path) -> None:
     try:
         topics = read_topics(path)
-    except zlib.error:
-        # Known bug, pinned by test_corrupt_deflate_stream_is_a_bcf_error (xfail):
-        # checks/safe_zip.py lets zlib.error out. Drop this branch once it is fixed.
-        return
     except BcfError as exc:
         text = str(exc)
         assert "\n" not in text, text
@@ -393,12 +388,6 @@ def test_bcf_random_files(fuzz_dir, raw):
     _read_only_bcf_error(path)
 
 
-@pytest.mark.xfail(
-    reason="checks/safe_zip.py: read_zip_members/_read_member catch BadZipFile, "
-    "OSError, EOFError, NotImplementedError, RuntimeError but not zlib.error, raised "
-    "by a corrupt deflate stream",
-    strict=True,
-)
 def test_corrupt_deflate_stream_is_a_bcf_error(bcf_seeds, fuzz_dir):
     members = _members(bcf_seeds["2.1"])
     raw = bytearray(_zip(members))

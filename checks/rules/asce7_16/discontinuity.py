@@ -238,6 +238,18 @@ _HANDLERS: dict[ConditionKind, Callable] = {
         LOAD_PATH,
         "Shear wall under no diaphragm",
     ),
+    ConditionKind.NO_PIER: _simple(
+        ConditionKind.NO_PIER,
+        Severity.WARNING,
+        "AWC SDPWS-2015 §4.3.5.1",
+        "Shear wall with no full-height pier, not counted",
+    ),
+    ConditionKind.STIFFNESS_FALLBACK: _simple(
+        ConditionKind.STIFFNESS_FALLBACK,
+        Severity.INFO,
+        "",
+        "Wall stiffness taken in proportion to length",
+    ),
     ConditionKind.NON_STACKING_WALL: _non_stacking,
     ConditionKind.CANTILEVER_PIECE: _cantilever,
 }
@@ -264,9 +276,9 @@ def check_discontinuity(
         conds.extend(r.conditions)
     seen: dict[str, Finding] = {}
     for c in conds:
-        handler = _HANDLERS.get(c.kind)
-        if handler is None:
-            continue
+        handler = _HANDLERS.get(c.kind) or _simple(
+            c.kind, Severity.WARNING, "", c.kind.value.replace("_", " ").capitalize()
+        )  # a condition kind added later is still reported, never dropped
         f = handler(c, allocation, config, model)
         seen.setdefault(f.id, f)
     return list(seen.values())

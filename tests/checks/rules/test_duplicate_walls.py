@@ -1,0 +1,44 @@
+"""Walls modelled twice (not a code provision; hand geometry, # common practice)."""
+
+from __future__ import annotations
+
+import pytest
+
+from checks.rules.model.duplicate_walls import check_duplicate_walls, overlap_fraction
+from ifc_bridge.model import BuildingModel, Level, WallSegment
+
+
+def _wall(guid, start, end, storey="L1"):
+    return WallSegment(guid=guid, name=guid, storey=storey, level="L2",
+                       base_elevation=0.0, top_elevation=3.0, start=start, end=end,
+                       thickness=0.15)
+
+
+def _model(*walls):
+    levels = (Level(name="L1", guid="s1", elevation=0.0, index=0),
+              Level(name="L2", guid="s2", elevation=3.0, index=1))
+    return BuildingModel(source="t.ifc", schema="IFC4", levels=levels, walls=walls)
+
+
+@pytest.mark.parametrize(("b_start", "b_end", "expected"), [
+    ((0.0, 0.0), (6.0, 0.0), 1.0),   # same wall, common practice
+    ((6.0, 0.0), (0.0, 0.0), 1.0),   # reversed direction
+    ((3.0, 0.05), (9.0, 0.05), 0.5),  # half overlap, within the thickness
+    ((0.0, 1.0), (6.0, 1.0), 0.0),   # parallel, 1 m apart: a different wall
+    ((0.0, 0.0), (0.0, 6.0), 0.0),   # perpendicular
+])
+def test_overlap_fraction(b_start, b_end, expected):
+    a = _wall("A", (0.0, 0.0), (6.0, 0.0))
+    assert overlap_fraction(a, _wall("B", b_start, b_end)) == pytest.approx(expected)
+
+
+def test_copy_is_reported_once_with_both_guids():
+    found = check_duplicate_walls(_model(_wall("A", (0.0, 0.49), (6.0, 0.49)),
+                                         _wall("B", (0.0, 0.51), (6.0, 0.51)),
+                                         _wall("C", (0.0, 5.0), (6.0, 5.0))))
+    assert [f.guids for f in found] == [("A", "B")]
+
+
+def test_same_place_other_storey_is_not_a_duplicate():
+    assert check_duplicate_walls(_model(_wall("A", (0, 0), (6, 0)),
+                                        _wall("B", (0, 0), (6, 0), storey="L2"))) == []
