@@ -15,7 +15,7 @@ anyone else are left exactly as they are.
 from __future__ import annotations
 
 import datetime as dt
-from collections.abc import Sequence
+from collections.abc import Mapping, Sequence
 from dataclasses import dataclass, replace
 from enum import StrEnum
 
@@ -101,15 +101,31 @@ def _comment(topic: Topic, text: str, *, author: str, now: dt.datetime) -> Comme
     return Comment(guid=guid, date=now, author=author, text=text)
 
 
+def _now_text(topic: Topic, current: Mapping[str, str]) -> str:
+    """The revised model's numbers for the elements a topic selects, or ``""``."""
+    guids = sorted({g for v in topic.viewpoints for g in v.selected})
+    states = [current[g] for g in guids if g in current]
+    return (" Now: " + "; ".join(states) + ".") if states else ""
+
+
 def _change_for(
-    topic: Topic, finding: Finding | None, *, author: str, now: dt.datetime, where: str
+    topic: Topic,
+    finding: Finding | None,
+    *,
+    author: str,
+    now: dt.datetime,
+    where: str,
+    current: Mapping[str, str],
 ) -> TopicChange | None:
     """The change for one of our previous topics, or None to leave it alone."""
     closed = is_closed(topic.status)
     if finding is None:
         if closed:
             return None
-        text = f"Re-check on {where}: no longer found; closed by {TOOL}."
+        text = (
+            f"Re-check on {where}: no longer found; closed by {TOOL}."
+            + _now_text(topic, current)
+        )
         return TopicChange(
             topic_guid=topic.guid,
             action=Action.CLOSE,
@@ -142,6 +158,7 @@ def merge_topics(
     author: str,
     now: dt.datetime | None,
     ifc_filename: str = "",
+    current: Mapping[str, str] | None = None,
 ) -> MergePlan:
     """Plan the update of the previous run's topics for the current findings.
 
@@ -154,6 +171,8 @@ def merge_topics(
         author: Author of the comments (from the config).
         now: Date of the re-check; taken as UTC if naive, the clock if None.
         ifc_filename: Name of the revised IFC file, quoted in the comments.
+        current: GlobalId -> the revised model's numbers for that element (e.g.
+            ``"wall 'L2-C1' DCR 0.45"``), quoted when a topic is closed.
 
     Returns:
         The plan.
@@ -173,7 +192,9 @@ def merge_topics(
         if not topic.is_ours and finding is None:
             untouched.append(topic.guid)
             continue
-        change = _change_for(topic, finding, author=author, now=now, where=where)
+        change = _change_for(
+            topic, finding, author=author, now=now, where=where, current=current or {}
+        )
         if change is None:
             untouched.append(topic.guid)
         else:

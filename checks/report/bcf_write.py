@@ -23,7 +23,7 @@ import io
 import logging
 import uuid
 import zipfile
-from collections.abc import Sequence
+from collections.abc import Mapping, Sequence
 from pathlib import Path
 
 import bcf.bcfxml
@@ -296,6 +296,7 @@ def write_bcf(
     ifc_filename: str = "",
     previous: Topics | None = None,
     now: dt.datetime | None = None,
+    current: Mapping[str, str] | None = None,
 ) -> None:
     """Write the findings as a BCF-XML zip, updating the previous run's topics if given.
 
@@ -311,6 +312,7 @@ def write_bcf(
         project_name: BCF project name; the IFC project name when ``""``.
         ifc_filename: Name of the IFC file checked, for the topics' header.
         previous: Topics read from the previous run's BCF (or JSON), or None.
+        current: GlobalId -> the revised model's numbers, quoted in close comments.
         now: Date of the run; taken as UTC if naive, the clock if None.
 
     Raises:
@@ -328,7 +330,12 @@ def write_bcf(
     name = project_name or model.project_name
     if previous is not None:
         plan = merge_topics(
-            previous, findings, author=author, now=now, ifc_filename=ifc_filename
+            previous,
+            findings,
+            author=author,
+            now=now,
+            ifc_filename=ifc_filename,
+            current=current,
         )
         if previous.source_kind == "bcf":
             _write_merged_zip(

@@ -15,7 +15,33 @@ from checks.report.bcf_read import read_topics
 from checks.report.bcf_write import write_bcf
 from checks.report.topics_json import topics_to_json
 
-__all__ = ["write_findings"]
+__all__ = ["current_state", "write_findings"]
+
+
+def current_state(run) -> dict[str, str]:
+    """GlobalId -> this run's governing numbers for each shear wall, in display units.
+
+    Quoted in the comment that closes a topic, so the design team sees the new
+    numbers of the wall they changed.
+    """
+    from checks.units import format_value
+
+    system = run.config.display_units
+    best: dict[str, tuple[float, str]] = {}
+    checks = getattr(run.checks, "pier_checks", {})
+    for p in run.allocation.piers:
+        c = checks.get(p.id)
+        dcr = getattr(c, "dcr", None)
+        if dcr is None:
+            continue
+        text = (
+            f"wall {p.name!r} DCR {dcr:.2f} (v = "
+            f"{format_value(c.unit_shear, 'force_per_length', system)} against "
+            f"{format_value(c.capacity, 'force_per_length', system)} supporting {p.level!r})"
+        )
+        if p.guid not in best or dcr > best[p.guid][0]:
+            best[p.guid] = (dcr, text)
+    return {g: t for g, (_, t) in best.items()}
 
 
 def write_findings(
@@ -43,6 +69,7 @@ def write_findings(
         "project_name": run.config.name,
         "ifc_filename": Path(run.model.source).name,
         "previous": prev,
+        "current": current_state(run) if prev is not None else None,
     }
     bcf_path, json_path = out / "findings.bcf", out / "findings.json"
     write_bcf(run.findings, bcf_path, **common)

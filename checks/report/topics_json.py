@@ -19,7 +19,7 @@ import base64
 import datetime as dt
 import json
 import logging
-from collections.abc import Sequence
+from collections.abc import Mapping, Sequence
 from pathlib import Path
 from typing import Any
 
@@ -182,6 +182,7 @@ def topics_to_json(
     ifc_filename: str = "",
     previous: Topics | None = None,
     now: dt.datetime | None = None,
+    current: Mapping[str, str] | None = None,
 ) -> Topics:
     """Write the findings' topics as JSON, merged with the previous run's if given.
 
@@ -217,7 +218,12 @@ def topics_to_json(
         )
     else:
         plan = merge_topics(
-            previous, findings, author=author, now=now, ifc_filename=ifc_filename
+            previous,
+            findings,
+            author=author,
+            now=now,
+            ifc_filename=ifc_filename,
+            current=current,
         )
         topics = apply_plan(previous, plan, model=model)
     text = json.dumps(
