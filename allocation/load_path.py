@@ -27,7 +27,7 @@ import networkx as nx
 from allocation.errors import AllocationError
 from allocation.results import FlexibleResult, Pier, PierId
 
-__all__ = ["Contribution", "build_load_path", "explain_pier"]
+__all__ = ["Contribution", "build_load_path", "explain_pier", "level_totals"]
 
 _TINY = 1e-9  # [-] relative force below which a direct line mass is round-off
 
@@ -183,4 +183,35 @@ def explain_pier(graph: nx.DiGraph, pier_id: PierId) -> list[Contribution]:
             )
         )
     out.sort(key=lambda c: (c.level, c.source))
+    return out
+
+
+def level_totals(graph: nx.DiGraph) -> dict[PierId, dict[str, float]]:
+    """For every pier, how much of its force comes from each level, in one pass.
+
+    Common practice: the same flow composition as :func:`explain_pier`, summed per
+    source level, for all piers at once (one topological pass over the graph, so it
+    stays fast on tall buildings).
+
+    Args:
+        graph: A graph from :func:`build_load_path`.
+
+    Returns:
+        Pier id -> level name -> force [N]; each pier's values add up to its force.
+    """
+    comp: dict[str, dict[str, float]] = {}
+    out: dict[PierId, dict[str, float]] = {}
+    for n in nx.topological_sort(graph):
+        data = graph.nodes[n]
+        if data["kind"] in ("piece", "mass"):
+            comp[n] = {data["level"]: float(data["force"])}
+            continue
+        acc: dict[str, float] = {}
+        for p in graph.predecessors(n):
+            s = graph.edges[p, n]["share"]
+            for lv, f in comp[p].items():
+                acc[lv] = acc.get(lv, 0.0) + s * f
+        comp[n] = acc
+        if data["kind"] == "pier":
+            out[n.split(":", 1)[1]] = acc
     return out

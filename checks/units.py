@@ -9,6 +9,7 @@ through pint; this module adds the trade's units pint lacks (plf, klf, psf, ksf,
 
 from __future__ import annotations
 
+import functools
 import math
 import re
 from typing import Final
@@ -224,7 +225,13 @@ def to_display(
         raise ValueError(msg)
     si_units, imperial, si = DISPLAY_QUANTITIES[quantity]
     units, label = imperial if DisplayUnits(system) is DisplayUnits.IMPERIAL else si
-    return float(Q_(float(value_si), si_units).m_as(units)), label
+    return float(value_si) * _factor(si_units, units), label
+
+
+@functools.lru_cache(maxsize=64)
+def _factor(si_units: str, units: str) -> float:
+    """Multiplier from an SI unit to a display unit, through pint (all are linear)."""
+    return float(Q_(1.0, si_units).m_as(units))
 
 
 def format_value(

@@ -10,7 +10,7 @@ from html import escape
 
 from allocation.asce7_16 import s12_8_elf
 from allocation.errors import AllocationError
-from allocation.load_path import explain_pier
+from allocation.load_path import explain_pier, level_totals
 from checks.project import DisplayUnits
 from checks.units import format_value
 
@@ -133,11 +133,25 @@ def _source(src: str) -> str:
     return f"diaphragm piece {escape(src)}"
 
 
+_DETAIL_NODES = 3000  # graphs larger than this show per-level totals only
+_TOTALS: dict[int, tuple[object, dict]] = {}
+
+
+def _totals(graph) -> dict:
+    """Per-level totals of every pier of a graph, computed once per graph."""
+    hit = _TOTALS.get(id(graph))
+    if hit is None or hit[0] is not graph:
+        _TOTALS.clear()
+        hit = _TOTALS[id(graph)] = (graph, level_totals(graph))
+    return hit[1]
+
+
 def load_path_cell(graphs, pier, system: DisplayUnits) -> str:
     """Where a pier's flexible force comes from: per level, then per source.
 
     Common practice (DESIGN.md item 10): the load path from
-    :func:`allocation.load_path.explain_pier`.
+    :func:`allocation.load_path.level_totals` and, on graphs small enough to list
+    every source, :func:`allocation.load_path.explain_pier`.
 
     Args:
         graphs: ``Allocation.graphs`` (load-path graph per direction).
@@ -150,17 +164,17 @@ def load_path_cell(graphs, pier, system: DisplayUnits) -> str:
     graph = graphs.get(pier.direction) if pier.direction is not None else None
     if graph is None:
         return "-"
+    by_level = _totals(graph).get(pier.id)
+    if not by_level:
+        return "-"
+    f = lambda v: format_value(v, "force", system)  # noqa: E731
+    head = "; ".join(f"{escape(lv)} {f(v)}" for lv, v in sorted(by_level.items()))
+    if graph.number_of_nodes() > _DETAIL_NODES:
+        return f"<span>{head}</span>"
     try:
         parts = explain_pier(graph, pier.id)
     except AllocationError:
-        return "-"
-    if not parts:
-        return "-"
-    f = lambda v: format_value(v, "force", system)  # noqa: E731
-    by_level: dict[str, float] = {}
-    for c in parts:
-        by_level[c.level] = by_level.get(c.level, 0.0) + c.force
-    head = "; ".join(f"{escape(lv)} {f(v)}" for lv, v in by_level.items())
+        return f"<span>{head}</span>"
     items = "".join(
         f"<li>{escape(c.level)}: {_source(c.source)}, share {c.share:.3f} → {f(c.force)}</li>"
         for c in parts

@@ -177,3 +177,24 @@ def test_one_graph_per_direction():
         build_load_path([*results, other], piers)
     with pytest.raises(AllocationError, match="not in the load-path graph"):
         explain_pier(build_load_path(results, piers), "nobody|L1|0|0")
+
+
+def test_level_totals_agree_with_explain_pier_on_the_demo():  # same flow, summed by level
+    from allocation.allocate import allocate
+    from allocation.load_path import explain_pier, level_totals
+    from checks.config import load_config
+    from checks.pipeline import load_model
+    from tests.conftest import SAMPLE_MODELS
+
+    cfg = load_config(SAMPLE_MODELS / "demo.toml")
+    model = load_model(SAMPLE_MODELS / "demo_building.ifc", cfg)
+    alloc = allocate(model, cfg.seismic, cfg.loads, cfg.analysis)
+    for graph in alloc.graphs.values():
+        totals = level_totals(graph)
+        for pid, by_level in totals.items():
+            expected: dict[str, float] = {}
+            for c in explain_pier(graph, pid):
+                expected[c.level] = expected.get(c.level, 0.0) + c.force
+            assert by_level.keys() == expected.keys()
+            for lv, f in expected.items():
+                assert by_level[lv] == pytest.approx(f, rel=1e-9, abs=1e-9)
