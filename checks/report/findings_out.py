@@ -1,5 +1,8 @@
 """``findings.bcf`` and ``findings.json`` of a check run, carrying a previous file forward.
 
+The BCF holds the error and warning findings (what the design team must act on);
+``findings.json`` holds every finding, info included.
+
 With ``previous`` (last run's ``findings.bcf`` or ``findings.json``), the design team's
 topics, comments, viewpoints and snapshots are kept; topics whose finding is gone are
 closed with a comment, still-true ones get a comment with the new numbers, new findings
@@ -11,6 +14,7 @@ from __future__ import annotations
 import os
 from pathlib import Path
 
+from checks.findings import Severity
 from checks.report.bcf_read import read_topics
 from checks.report.bcf_write import write_bcf
 from checks.report.topics_json import topics_to_json
@@ -72,6 +76,9 @@ def write_findings(
         "current": current_state(run) if prev is not None else None,
     }
     bcf_path, json_path = out / "findings.bcf", out / "findings.json"
-    write_bcf(run.findings, bcf_path, **common)
+    # BCF carries what the design team must act on; info findings (diaphragm demands,
+    # hold-down summaries, rho) are results, kept in findings.json and the report
+    issues = [f for f in run.findings if f.severity is not Severity.INFO]
+    write_bcf(issues, bcf_path, **common)
     topics_to_json(run.findings, json_path, **common)
     return {"bcf": bcf_path, "findings": json_path}

@@ -157,6 +157,9 @@ def _draw_scale_bar(draw: ImageDraw.ImageDraw, plan: _Plan) -> None:
     draw.text((x0, y0 - 20), label, fill=_INK, font=_font())
 
 
+_CACHE: dict[tuple, tuple[BuildingModel, bytes]] = {}
+
+
 def plan_snapshot_png(
     model: BuildingModel,
     *,
@@ -194,6 +197,10 @@ def plan_snapshot_png(
             f"give at least {2 * _MARGIN + 1} px each way"
         )
         raise BcfError(msg)
+    key = (id(model), level, tuple(sorted(set(highlight))), tuple(size))
+    hit = _CACHE.get(key)
+    if hit is not None and hit[0] is model:
+        return hit[1]
     marked_ids = set(highlight)
     grey, marked = _walls_to_draw(model, level, marked_ids)
     plan = _Plan(_bounds(model, level, grey + marked), size)
@@ -205,5 +212,8 @@ def plan_snapshot_png(
     _draw_axes(draw, plan)
     _draw_scale_bar(draw, plan)
     out = io.BytesIO()
-    image.save(out, format="PNG", optimize=False)
-    return out.getvalue()
+    image.save(out, format="PNG", optimize=False, compress_level=1)
+    if len(_CACHE) > 4096 or (_CACHE and next(iter(_CACHE.values()))[0] is not model):
+        _CACHE.clear()  # one model at a time; the BCF and the JSON share snapshots
+    _CACHE[key] = (model, out.getvalue())
+    return _CACHE[key][1]
