@@ -142,6 +142,10 @@ def generate(storeys: int, walls_per_storey: int, path: Path) -> Path:
                     count += 1
         while count < walls_per_storey:  # partitions in the bays
             i, j = count % lines, (count // lines) % lines
+            layer = count // (lines * lines)  # a further partition row in the bay
+            if layer > 6:
+                msg = f"{walls_per_storey} walls per storey do not fit {lines} bays"
+                raise ValueError(msg)
             wall = _wall(
                 f,
                 run,
@@ -149,7 +153,7 @@ def generate(storeys: int, walls_per_storey: int, path: Path) -> Path:
                 axis_ctx,
                 (s, "p", count),
                 i * BAY + 1.0,
-                j * BAY + BAY / 2,
+                j * BAY + 1.0 + 0.7 * layer,
                 z,
                 0.0,
                 3.0,

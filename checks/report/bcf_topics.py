@@ -289,7 +289,12 @@ def viewpoint_for(
     )
     camera = frame_box(box, aspect_ratio=size[0] / size[1])
     level = finding.level if finding.level in {lv.name for lv in model.levels} else ""
-    png = plan_snapshot_png(model, level=level, highlight=finding.guids, size=size)
+    # an info finding is a result, not an issue: its viewpoint needs no marked plan
+    png = (
+        plan_snapshot_png(model, level=level, highlight=finding.guids, size=size)
+        if finding.severity is not Severity.INFO
+        else None
+    )
     return Viewpoint(
         guid=guid, selected=tuple(finding.guids), camera=camera, snapshot=png
     )
