@@ -4,8 +4,6 @@ from __future__ import annotations
 
 from pathlib import Path
 
-import pytest
-
 from checks.cli import main
 from checks.requirements import requirement_findings, write_requirements_ids
 from tests.conftest import sample_path

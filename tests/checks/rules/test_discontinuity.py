@@ -206,4 +206,5 @@ def test_condition_numbers_read_in_display_units():  # NIST SP 811: 1 lbf = 4.44
     text = in_display_units("its shear 4448.2216 N enters at (3.048, 6.096) m", Cfg())
     assert "1.00 kip" in text
     assert "(10.0 ft, 20.0 ft)" in text
-    assert " N " not in text and ") m" not in text
+    assert " N " not in text
+    assert ") m" not in text
