@@ -19,19 +19,21 @@ from __future__ import annotations
 
 from collections.abc import Sequence
 from dataclasses import dataclass
-from itertools import pairwise
 
+import numpy as np
 import shapely
-from shapely.geometry import LineString, MultiLineString, Polygon
+from shapely.geometry import MultiLineString, Polygon
 from shapely.geometry.base import BaseGeometry
 from shapely.ops import split
 
+from allocation._memo import Memo
 from ifc_bridge.model import Direction
 
 __all__ = ["Piece", "Support", "split_region", "to_local", "to_plan"]
 
 _EPS = 1e-6  # [m] contact tolerance between a piece edge and a line
 _MIN_AREA = 1e-9  # [m²] slivers from round-off are dropped
+_PAD = 1e-3  # [m] margin of the bounds pre-tests (far above _EPS and round-off)
 
 
 @dataclass(frozen=True, slots=True, kw_only=True)
@@ -84,19 +86,63 @@ def _polygons(geom: BaseGeometry) -> list[Polygon]:
     return [g for g in parts if g.geom_type == "Polygon" and g.area > _MIN_AREA]
 
 
-def _contact(piece: Polygon, support: Support) -> list[tuple[float, float]]:
+def _split(poly: Polygon, lines: BaseGeometry) -> list[Polygon]:
+    """The pieces of ``poly`` cut by ``lines``, slivers dropped.
+
+    ``shapely.ops.split`` of a polygon (its GEOS < 3.15 method: the cells of the
+    boundary noded with the lines, kept where the polygon contains a point of
+    them), in vectorised calls; with GEOS >= 3.15 that function itself.
+    """
+    if shapely.geos_version >= (3, 15, 0):
+        return _polygons(split(poly, lines))
+    noded = shapely.get_parts(shapely.union(poly.boundary, lines))
+    cells = shapely.get_parts(shapely.polygonize(noded))
+    shapely.prepare(poly)
+    inside = shapely.contains(poly, shapely.point_on_surface(cells))
+    keep = inside & (shapely.area(cells) > _MIN_AREA)
+    return [g for g in cells[keep].tolist() if g.geom_type == "Polygon"]
+
+
+class _Outline:
+    """A polygon's edges as coordinate arrays, for repeated support tests (private).
+
+    ``edges`` rows are (u0, v0, u1, v1), the exterior's edges then each hole's, in
+    ring order, as the rings' coordinates give them.
+    """
+
+    __slots__ = ("edges", "polygon", "umax", "umin", "vmax", "vmin")
+
+    def __init__(self, polygon: Polygon) -> None:
+        self.polygon = polygon
+        if shapely.get_num_interior_rings(polygon) == 0:
+            xy = shapely.get_coordinates(polygon)
+            self.edges = np.column_stack((xy[:-1], xy[1:]))
+        else:  # no edge from one ring's last point to the next ring's first
+            xy, ring = shapely.get_coordinates(
+                shapely.get_rings(polygon), return_index=True
+            )
+            same = ring[1:] == ring[:-1]
+            self.edges = np.column_stack((xy[:-1], xy[1:]))[same]
+        self.umin, self.vmin, self.umax, self.vmax = polygon.bounds
+
+    def reaches(self, support: Support) -> bool:
+        """False when the support's v is clear of the outline's v-range."""
+        return self.vmin - _PAD <= support.v <= self.vmax + _PAD
+
+
+def _contact(outline: _Outline, support: Support) -> list[tuple[float, float]]:
     """Intervals in u where an edge of the piece lies on the support's chords."""
+    if not outline.reaches(support):
+        return []
+    e, v = outline.edges, support.v
+    on = (np.abs(e[:, 1] - v) <= _EPS) & (np.abs(e[:, 3] - v) <= _EPS)
     spans = []
-    for ring in (piece.exterior, *piece.interiors):
-        c = list(ring.coords)
-        for (u0, v0), (u1, v1) in pairwise(c):
-            if abs(v0 - support.v) > _EPS or abs(v1 - support.v) > _EPS:
-                continue
-            a, b = min(u0, u1), max(u0, u1)
-            for s0, s1 in support.segments:
-                lo, hi = max(a, s0), min(b, s1)
-                if hi - lo > _EPS:
-                    spans.append((lo, hi))
+    for u0, _, u1, _ in e[on].tolist():
+        a, b = min(u0, u1), max(u0, u1)
+        for s0, s1 in support.segments:
+            lo, hi = max(a, s0), min(b, s1)
+            if hi - lo > _EPS:
+                spans.append((lo, hi))
     spans.sort()
     merged: list[list[float]] = []
     for a, b in spans:
@@ -107,25 +153,33 @@ def _contact(piece: Polygon, support: Support) -> list[tuple[float, float]]:
     return [(a, b) for a, b in merged]
 
 
-def _meets(piece: Polygon, support: Support) -> bool:
+def _meets(outline: _Outline, support: Support) -> bool:
     """The support's chords run along the piece's edge or into it (a slit)."""
-    if _contact(piece, support):
+    if not outline.reaches(support):
+        return False
+    if _contact(outline, support):
         return True
-    return any(
-        piece.intersection(LineString([(a, support.v), (b, support.v)])).length > _EPS
+    near = [
+        [(a, support.v), (b, support.v)]
         for a, b in support.segments
-    )
+        if a <= outline.umax + _PAD and b >= outline.umin - _PAD
+    ]
+    if not near:
+        return False
+    cut = shapely.intersection(outline.polygon, shapely.linestrings(near))
+    return bool((shapely.length(cut) > _EPS).any())
 
 
 def _cut_across(
     piece: Polygon, supports: Sequence[Support], tol: float = _EPS
 ) -> list[Polygon]:
     u0, v0, u1, v1 = piece.bounds
+    outline = _Outline(piece)
     ends = sorted(
         {
             e
             for s in supports
-            if _meets(piece, s)
+            if _meets(outline, s)
             for span in (s.spans or s.segments)
             for e in span
         }
@@ -136,14 +190,21 @@ def _cut_across(
     if not ends:
         return [piece]
     cuts = MultiLineString([[(e, v0 - 1.0), (e, v1 + 1.0)] for e in ends])
-    return _polygons(split(piece, cuts))
+    return _split(piece, cuts)
 
 
-def _split_by_chords(poly: Polygon, supports: Sequence[Support]) -> list[Polygon]:
+def _chord_lines(supports: Sequence[Support]) -> BaseGeometry | None:
+    """All the supports' chords as one splitter, each a little longer than its chord."""
     chords = [
         [(a - _EPS, s.v), (b + _EPS, s.v)] for s in supports for a, b in s.segments
     ]
-    return _polygons(split(poly, MultiLineString(chords))) if chords else [poly]
+    if not chords:
+        return None
+    return shapely.multilinestrings(shapely.linestrings(np.array(chords)))
+
+
+def _split_by_chords(poly: Polygon, chords: BaseGeometry | None) -> list[Polygon]:
+    return [poly] if chords is None else _split(poly, chords)
 
 
 def split_region(
@@ -156,6 +217,9 @@ def split_region(
     where a line's support ends; the chords split them again (a chord that ended at
     an opening only separates the region once it is cut across there).
 
+    A region and chords already split (the same outline and chords on a typical
+    floor, whatever the lines are called) are taken from memory.
+
     Args:
         local: Region outline in the local frame, holes kept [m].
         supports: The lines' chords on this region.
@@ -165,15 +229,35 @@ def split_region(
     Returns:
         The pieces, ordered by centroid (v, then u), with their supports.
     """
-    pieces = []
-    for p in _split_by_chords(local, supports):
-        for q in _cut_across(p, supports, tol):
-            for r in _split_by_chords(q, supports):
-                touching = tuple(
-                    sorted((s for s in supports if _contact(r, s)), key=lambda s: s.v)
-                )
-                pieces.append(Piece(local=r, supports=touching))
-    pieces.sort(
-        key=lambda p: (round(p.local.centroid.y, 9), round(p.local.centroid.x, 9))
+    key = (
+        local.wkb,
+        repr(tol),
+        repr(tuple((s.v, s.segments, s.spans) for s in supports)),
     )
-    return pieces
+    cells = _SPLITS.get(key, lambda: _split_region(local, supports, tol))
+    return [
+        Piece(local=poly, supports=tuple(supports[i] for i in touching))
+        for poly, touching in cells
+    ]
+
+
+_SPLITS: Memo[tuple[tuple[Polygon, tuple[int, ...]], ...]] = Memo(256)
+
+
+def _split_region(
+    local: Polygon, supports: Sequence[Support], tol: float
+) -> tuple[tuple[Polygon, tuple[int, ...]], ...]:
+    """The pieces of :func:`split_region`, each with its supports' indices."""
+    pieces = []
+    chords = _chord_lines(supports)
+    for p in _split_by_chords(local, chords):
+        for q in _cut_across(p, supports, tol):
+            for r in _split_by_chords(q, chords):
+                outline = _Outline(r)
+                touching = sorted(
+                    (i for i, s in enumerate(supports) if _contact(outline, s)),
+                    key=lambda i: supports[i].v,
+                )
+                pieces.append((r, tuple(touching)))
+    pieces.sort(key=lambda p: (round(p[0].centroid.y, 9), round(p[0].centroid.x, 9)))
+    return tuple(pieces)

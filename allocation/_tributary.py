@@ -13,11 +13,14 @@ import math
 from collections.abc import Sequence
 from dataclasses import dataclass
 
+import numpy as np
+import shapely
 from shapely.geometry import Point, Polygon
 from shapely.ops import nearest_points, unary_union
 
+from allocation._memo import Memo
 from allocation._pieces import Piece, Support, split_region, to_local, to_plan
-from allocation.lines import along, line_crossing, perpendicular
+from allocation.lines import along, perpendicular, region_crossings
 from allocation.results import LevelLoad, LineId, MassItem, ResistanceLine
 from ifc_bridge.model import Diaphragm, Direction
 
@@ -74,15 +77,13 @@ def make_slots(
     """
     slots = []
     for region in regions:
-        supports = []
-        for line in lines:
-            c = line_crossing(line, region, tolerance=tol)
-            if c is not None:
-                supports.append(
-                    Support(
-                        line=line.id, v=c.offset, segments=c.segments, spans=c.spans
-                    )
-                )
+        supports = [
+            Support(line=line.id, v=c.offset, segments=c.segments, spans=c.spans)
+            for line, c in zip(
+                lines, region_crossings(lines, region, tolerance=tol), strict=True
+            )
+            if c is not None
+        ]
         local = to_local(region.polygon, direction)
         for n, piece in enumerate(split_region(local, supports, tol), start=1):
             slots.append(
@@ -155,11 +156,20 @@ def _spread(
     """(piece, area of the polygon in it [m²], local centroid) for each piece.
 
     A piece the polygon covers (the usual slab item) is taken whole, which avoids
-    GEOS round-off on edges shared by the piece and the slab outline.
+    GEOS round-off on edges shared by the piece and the slab outline. The same
+    polygon on the same pieces (a typical floor) is taken from memory.
     """
+    key = (polygon.wkb, direction, tuple(slot.plan.wkb for slot in slots))
+    shares = _SPREADS.get(key, lambda: _shares(polygon, slots, direction))
+    return [(slots[j], area, c) for j, area, c in shares]
+
+
+def _shares(
+    polygon: Polygon, slots: Sequence[Slot], direction: Direction
+) -> tuple[tuple[int, float, tuple[float, float]], ...]:
     grown = polygon.buffer(_COVER_TOL)
     out = []
-    for slot in slots:
+    for j, slot in enumerate(slots):
         if not grown.intersects(slot.plan):
             continue
         part = slot.plan if grown.covers(slot.plan) else polygon.intersection(slot.plan)
@@ -169,8 +179,127 @@ def _spread(
                 if part is slot.plan
                 else to_local(part, direction).centroid
             )
-            out.append((slot, float(part.area), (float(c.x), float(c.y))))
-    return out
+            out.append((j, float(part.area), (float(c.x), float(c.y))))
+    return tuple(out)
+
+
+# (piece index or -1, support index or -1, local point u, v [m], off every piece)
+_Place = tuple[int, int, float, float, bool]
+_SPREADS: Memo[tuple[tuple[int, float, tuple[float, float]], ...]] = Memo(256)
+_PLACES: Memo[tuple[_Place, ...]] = Memo(256)
+
+
+def _on_lines(
+    u: np.ndarray, v: np.ndarray, slots: Sequence[Slot]
+) -> list[tuple[int, int] | None]:
+    """:func:`on_line` of many local points: (piece, support) indices, the same
+    search order."""
+    found: list[tuple[int, int] | None] = [None] * len(u)
+    todo = np.ones(len(u), dtype=bool)
+    for j, slot in enumerate(slots):
+        for k, s in enumerate(slot.piece.supports):
+            near = todo & (np.abs(v - s.v) <= ON_LINE)
+            if not near.any():
+                continue
+            inside = np.zeros(len(u), dtype=bool)
+            for a, b in s.segments:
+                inside |= (a - ON_LINE <= u) & (u <= b + ON_LINE)
+            hit = near & inside
+            for i in np.flatnonzero(hit).tolist():
+                found[i] = (j, k)
+            todo &= ~hit
+    return found
+
+
+def _hosts(u: np.ndarray, v: np.ndarray, slots: Sequence[Slot]) -> list[_Place]:
+    """:func:`host` of many local points at once (the same search order)."""
+    out: list[_Place | None] = [None] * len(u)
+    todo = np.ones(len(u), dtype=bool)
+    points = shapely.points(u, v)
+    for j, slot in enumerate(slots):
+        idx = np.flatnonzero(todo)
+        if idx.size == 0:
+            break
+        idx = idx[shapely.covers(slot.piece.local, points[idx])]
+        for i in idx.tolist():
+            out[i] = (j, -1, float(u[i]), float(v[i]), False)
+        todo[idx] = False
+    rest = np.flatnonzero(todo)
+    if rest.size:  # off every piece: the nearest one (the first of equals)
+        polys = np.array([slot.piece.local for slot in slots], dtype=object)
+        off = points[rest]
+        best = np.argmin(shapely.distance(polys[np.newaxis, :], off[:, np.newaxis]), 1)
+        near = shapely.get_coordinates(shapely.shortest_line(polys[best], off))
+        for k, (i, j) in enumerate(zip(rest.tolist(), best.tolist(), strict=True)):
+            qu, qv = near[2 * k].tolist()
+            out[i] = (j, -1, qu, qv, True)
+    return out  # type: ignore[return-value]
+
+
+def _place(u: np.ndarray, v: np.ndarray, slots: Sequence[Slot]) -> tuple[_Place, ...]:
+    """Each local point on a chord (its support), else in (or nearest to) a piece."""
+    on = _on_lines(u, v, slots)
+    free = [i for i, hit in enumerate(on) if hit is None]
+    nan = float("nan")
+    out: list[_Place] = [
+        (-1, -1, nan, nan, False) if hit is None else (*hit, nan, nan, False)
+        for hit in on
+    ]
+    if free and slots:
+        pick = np.array(free)
+        for i, spot in zip(free, _hosts(u[pick], v[pick], slots), strict=True):
+            out[i] = spot
+    return tuple(out)
+
+
+def _point_targets(
+    items: Sequence[MassItem],
+    slots: Sequence[Slot],
+    wall_lines: dict[tuple[str, int], LineId],
+    direction: Direction,
+) -> list[tuple[LineId | None, tuple[Slot, float, float] | None]]:
+    """Where each point item goes: (its line, else its piece and local point).
+
+    The points not in a line of their own are placed geometrically; the same
+    points on the same pieces (a typical floor) are placed from memory.
+    """
+    uv = np.array([item.location for item in items], dtype=np.float64).reshape(-1, 2)
+    if direction is not Direction.X:
+        uv = uv[:, ::-1]  # as local_uv: (along, across) = (y, x)
+    lines = [
+        wall_lines.get((item.ref, item.pier_part)) if item.source == "wall" else None
+        for item in items
+    ]
+    spots: list[tuple[Slot, float, float] | None] = [None] * len(items)
+    ask = [k for k, line in enumerate(lines) if not line]
+    if not ask:
+        return list(zip(lines, spots, strict=True))
+    pick = uv[np.array(ask)]
+    key = (_slots_key(slots), pick.tobytes())
+    placed = _PLACES.get(key, lambda: _place(pick[:, 0], pick[:, 1], slots))
+    for n, (k, (j, s, u, v, off)) in enumerate(zip(ask, placed, strict=True)):
+        lines[k] = slots[j].piece.supports[s].line if s >= 0 else None
+        if s < 0 and j >= 0:
+            spots[k] = (slots[j], u, v)
+            if off:
+                pu, pv = pick[n].tolist()
+                logger.debug(
+                    "point (%s, %s) off the diaphragm: placed on %s",
+                    pu,
+                    pv,
+                    slots[j].id,
+                )
+    return list(zip(lines, spots, strict=True))
+
+
+def _slots_key(slots: Sequence[Slot]) -> tuple[tuple[bytes, str], ...]:
+    return tuple(
+        (
+            slot.piece.local.wkb,
+            repr(tuple((s.v, s.segments) for s in slot.piece.supports)),
+        )
+        for slot in slots
+    )
 
 
 def load_masses(
@@ -190,26 +319,31 @@ def load_masses(
     Returns:
         Weight sent straight to each line [N], and weight with no region at all [N].
     """
+    parts = [
+        [] if item.polygon is None else _spread(item.polygon, slots, direction)
+        for item in items
+    ]
+    bases = [math.fsum(area for _, area, _ in p) for p in parts]
+    points = [i for i, base in enumerate(bases) if not base > 0.0]
+    where = dict(
+        zip(
+            points,
+            _point_targets([items[i] for i in points], slots, wall_lines, direction),
+            strict=True,
+        )
+    )
     direct: dict[LineId, float] = {}
     lost = 0.0
-    for item in items:
-        parts = [] if item.polygon is None else _spread(item.polygon, slots, direction)
-        base = math.fsum(area for _, area, _ in parts)
-        if base > 0.0:
-            for slot, area, (u, v) in parts:
-                slot.add(item.weight * area / base, u, v)
+    for i, item in enumerate(items):
+        if bases[i] > 0.0:
+            for slot, area, (u, v) in parts[i]:
+                slot.add(item.weight * area / bases[i], u, v)
             continue
-        u, v = local_uv(item.location, direction)
-        line = (
-            wall_lines.get((item.ref, item.pier_part))
-            if item.source == "wall"
-            else None
-        )
-        line = line or on_line(u, v, slots)
+        line, spot = where[i]
         if line is not None:
             direct[line] = direct.get(line, 0.0) + item.weight
-        elif slots:
-            slot, u, v = host(u, v, slots)
+        elif spot is not None:
+            slot, u, v = spot
             slot.add(item.weight, u, v)
         else:
             lost += item.weight

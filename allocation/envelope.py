@@ -41,6 +41,28 @@ def _peaks(items: Iterable[tuple[str, dict[str, float]]]) -> dict[str, _Peak]:
     return out
 
 
+class _LineSums:
+    """Signed sums of pier forces per line, visiting only the lines of given piers."""
+
+    __slots__ = ("index", "members", "order")
+
+    def __init__(self, members: dict[LineId, tuple[PierId, ...]]) -> None:
+        self.members = members
+        self.order = {lid: n for n, lid in enumerate(members)}
+        self.index: dict[PierId, list[LineId]] = {}
+        for lid, piers in members.items():
+            for p in piers:
+                self.index.setdefault(p, []).append(lid)
+
+    def __call__(self, forces: dict[PierId, float]) -> dict[LineId, float]:
+        """Each line with any pier in ``forces``: the sum over its piers, in order [N]."""
+        hit = {lid for p in forces for lid in self.index.get(p, ())}
+        return {
+            lid: sum(forces[p] for p in self.members[lid] if p in forces)
+            for lid in sorted(hit, key=self.order.__getitem__)
+        }
+
+
 def _govern(
     flexible: _Peak | None, rigid: _Peak | None, method: DiaphragmMethod
 ) -> tuple[float, Method, str]:
@@ -117,18 +139,8 @@ def line_envelope(
     """
     flex = _peaks((r.direction.value, r.line_forces) for r in flexible)
     members = {line.id: line.piers for line in lines}
-    rigid_lines = (
-        (
-            r.case.label,
-            {
-                lid: sum(r.pier_forces[p] for p in piers if p in r.pier_forces)
-                for lid, piers in members.items()
-                if any(p in r.pier_forces for p in piers)
-            },
-        )
-        for r in rigid
-    )
-    rig = _peaks(rigid_lines)
+    sums = _LineSums(members)
+    rig = _peaks((r.case.label, sums(r.pier_forces)) for r in rigid)
     out: dict[LineId, dict[str, float]] = {}
     for line in lines:
         value, _, _ = _govern(flex.get(line.id), rig.get(line.id), method)

@@ -22,44 +22,27 @@ from __future__ import annotations
 
 import dataclasses
 from collections.abc import Iterable, Sequence
-from dataclasses import dataclass
 
-from shapely.geometry import LineString, Polygon
-
+from allocation._crossing import (
+    Crossing,
+    RegionProbe,
+    crossing_on,
+    line_crossing,
+    merge_intervals,
+    region_crossings,
+)
 from allocation.parameters import AnalysisOptions
 from allocation.results import Condition, ConditionKind, Pier, ResistanceLine
 from ifc_bridge.model import Diaphragm, Direction
 
-__all__ = ["Crossing", "along", "find_lines", "line_crossing", "perpendicular"]
-
-_EPS = 1e-9  # [m] geometric coincidence
-_SNAP = 1e-6  # [m] a line this close to a slab vertex's coordinate is taken at it
-
-
-@dataclass(frozen=True, slots=True, kw_only=True)
-class Crossing:
-    """Where a line supports one diaphragm region.
-
-    Attributes:
-        diaphragm: Diaphragm id.
-        offset: Perpendicular coordinate of the chord(s) [m]; the line's offset, or
-            the nearest slab edge within the tolerance when the walls are just off it.
-        segments: Chords as ``(start, end)`` along-line coordinates, sorted [m].
-        spans: ``segments`` with the gaps at interior openings bridged: one
-            (first start, last end) per chord of the hole-filled outline. A gap
-            between segments at an opening is spanned around by the diaphragm
-            (common practice); where a span ends, the line's support ends [m].
-    """
-
-    diaphragm: str
-    offset: float
-    segments: tuple[tuple[float, float], ...]
-    spans: tuple[tuple[float, float], ...] = ()
-
-    @property
-    def length(self) -> float:
-        """Total chord length [m]."""
-        return float(sum(b - a for a, b in self.segments))
+__all__ = [
+    "Crossing",
+    "along",
+    "find_lines",
+    "line_crossing",
+    "perpendicular",
+    "region_crossings",
+]
 
 
 def perpendicular(point: tuple[float, float], direction: Direction) -> float:
@@ -75,104 +58,6 @@ def along(point: tuple[float, float], direction: Direction) -> float:
 def _pier_span(pier: Pier, direction: Direction) -> tuple[float, float]:
     a, b = along(pier.start, direction), along(pier.end, direction)
     return (min(a, b), max(a, b))
-
-
-def _merge(intervals: Iterable[tuple[float, float]]) -> list[tuple[float, float]]:
-    out: list[list[float]] = []
-    for a, b in sorted(intervals):
-        if out and a <= out[-1][1] + _EPS:
-            out[-1][1] = max(out[-1][1], b)
-        else:
-            out.append([a, b])
-    return [(a, b) for a, b in out]
-
-
-def _chords(
-    polygon: Polygon, direction: Direction, offset: float
-) -> list[tuple[float, float]]:
-    """Intervals along the line where the line at ``offset`` meets the polygon."""
-    x0, y0, x1, y1 = polygon.bounds
-    if direction is Direction.X:
-        probe = LineString([(x0 - 1.0, offset), (x1 + 1.0, offset)])
-    else:
-        probe = LineString([(offset, y0 - 1.0), (offset, y1 + 1.0)])
-    hit = polygon.intersection(probe)
-    parts = getattr(hit, "geoms", [hit])
-    spans = []
-    for g in parts:
-        if g.geom_type == "LineString" and g.length > _EPS:
-            u = [along(c, direction) for c in g.coords]
-            spans.append((min(u), max(u)))
-    return _merge(spans)
-
-
-def _overlapping(
-    chords: list[tuple[float, float]], extent: tuple[float, float]
-) -> tuple[tuple[float, float], ...]:
-    e0, e1 = extent
-    return tuple((a, b) for a, b in chords if min(b, e1) - max(a, e0) > _EPS)
-
-
-def _bridged(
-    segments: tuple[tuple[float, float], ...], filled: list[tuple[float, float]]
-) -> tuple[tuple[float, float], ...]:
-    """Extent of the segments within each chord of the hole-filled outline."""
-    out = []
-    for a, b in filled:
-        inside = [(s, t) for s, t in segments if s >= a - _EPS and t <= b + _EPS]
-        if inside:
-            out.append((min(s for s, _ in inside), max(t for _, t in inside)))
-    return tuple(out)
-
-
-def line_crossing(
-    line: ResistanceLine, diaphragm: Diaphragm, *, tolerance: float
-) -> Crossing | None:
-    """The chords of a diaphragm region that a line physically cuts, or None.
-
-    Common practice: a line supports the diaphragm over its full crossing of the
-    region, collectors carrying the force where the walls are shorter (DESIGN.md 5).
-
-    Args:
-        line: The line of resistance.
-        diaphragm: One diaphragm region (holes are excluded from the chords).
-        tolerance: Largest distance from the line to a slab edge that still counts as
-            the line standing at that edge [m] (``line_tolerance``).
-
-    Returns:
-        The crossing, or None when the line's walls cut no chord of the region.
-    """
-    poly, d, off = diaphragm.polygon, line.direction, line.offset
-    rings = [poly.exterior, *poly.interiors]
-    edges = sorted(
-        {perpendicular(c, d) for r in rings for c in r.coords},
-        key=lambda v: (abs(v - off), v),
-    )
-    exact = edges[0] if edges and abs(edges[0] - off) <= _SNAP else off
-    near = [v for v in edges if abs(v - off) <= tolerance and v != exact]
-    band = _band(line, exact)
-    for v in (exact, *near):
-        chords = _chords(poly, d, v)
-        if v == exact and band:
-            # walls slightly off-axis: the line meets the slab over the whole band
-            chords = _merge([*chords, *(c for b in band for c in _chords(poly, d, b))])
-        found = _overlapping(chords, line.wall_extent)
-        if found:
-            spans = _bridged(found, _chords(Polygon(poly.exterior), d, v))
-            return Crossing(
-                diaphragm=diaphragm.id, offset=float(v), segments=found, spans=spans
-            )
-    return None
-
-
-def _band(line: ResistanceLine, exact: float) -> tuple[float, ...]:
-    """Extra probe offsets across an off-axis line's width (its piers' end points)."""
-    if line.offset_range is None:
-        return ()
-    lo, hi = line.offset_range
-    if hi - lo <= _SNAP:
-        return ()
-    return tuple(v for v in (lo, hi) if abs(v - exact) > _SNAP)
 
 
 def _cluster(piers: list[Pier], direction: Direction, tol: float) -> list[list[Pier]]:
@@ -201,7 +86,7 @@ def _covered(
 
 def _make_line(
     group: list[Pier],
-    regions: Sequence[Diaphragm],
+    regions: Sequence[RegionProbe],
     *,
     line_id: str,
     level: str,
@@ -225,13 +110,13 @@ def _make_line(
             max(perpendicular(c, direction) for p in group for c in (p.start, p.end)),
         ),
     )
-    merged = _merge(spans)
+    merged = merge_intervals(spans)
     crossings, collector = [], 0.0
     for region in regions:
-        c = line_crossing(line, region, tolerance=tolerance)
+        c = crossing_on(line, region, tolerance)
         if c is None:
             continue
-        crossings.append((region.id, c.length))
+        crossings.append((region.diaphragm.id, c.length))
         collector += max(0.0, c.length - _covered(merged, c.segments))
     return dataclasses.replace(
         line, crossings=tuple(crossings), collector_length=float(collector)
@@ -268,6 +153,7 @@ def find_lines(
     """
     regions = [d for d in diaphragms if d.level == level]
     slabs = tuple(sorted({g for d in regions for g in d.slab_guids}))
+    probes = [RegionProbe(d) for d in regions]
     tol = options.line_tolerance
     lines: list[ResistanceLine] = []
     assigned: dict[str, str] = {}
@@ -281,7 +167,7 @@ def find_lines(
             line_id = f"L{level_index}-{direction.value}-{n}"
             line = _make_line(
                 group,
-                regions,
+                probes,
                 line_id=line_id,
                 level=level,
                 direction=direction,
@@ -291,11 +177,18 @@ def find_lines(
             assigned.update({p.id: line.id for p in group})
             if not line.crossings:
                 conditions.append(_off_diaphragm(line, group))
-    out = tuple(
-        dataclasses.replace(p, line=assigned[p.id]) if p.id in assigned else p
-        for p in piers
-    )
+    out = tuple(_with_line(p, assigned[p.id]) if p.id in assigned else p for p in piers)
     return tuple(lines), out, tuple(conditions)
+
+
+_PIER_FIELDS = tuple(
+    f.name for f in dataclasses.fields(Pier) if f.init and f.name != "line"
+)
+
+
+def _with_line(pier: Pier, line: str) -> Pier:
+    """``dataclasses.replace(pier, line=line)``, without its per-call field scan."""
+    return Pier(**{name: getattr(pier, name) for name in _PIER_FIELDS}, line=line)
 
 
 def _no_line(level: str, direction: Direction, slabs: tuple[str, ...]) -> Condition:

@@ -273,17 +273,37 @@ def allocate_rigid(
     _validate(
         story_shear, center_of_mass, plan_extent, case, accidental_eccentricity, Ax
     )
-    d = case.direction
     rig = _rigidity(
         piers, level=level, center_of_mass=center_of_mass, plan_extent=plan_extent
     )
-    xmin, ymin, xmax, ymax = plan_extent
-    is_x = d is Direction.X
-    acc1 = (
-        case.ecc_sign
-        * accidental_eccentricity
-        * ((ymax - ymin) if is_x else (xmax - xmin))
+    return _allocate(
+        rig,
+        level=level,
+        story_shear=story_shear,
+        center_of_mass=center_of_mass,
+        plan_extent=plan_extent,
+        case=case,
+        accidental_eccentricity=accidental_eccentricity,
+        Ax=Ax,
     )
+
+
+def _allocate(
+    rig: _Rigidity,
+    *,
+    level: str,
+    story_shear: float,
+    center_of_mass: tuple[float, float],
+    plan_extent: tuple[float, float, float, float],
+    case: LoadCase,
+    accidental_eccentricity: float,
+    Ax: float,
+) -> RigidResult:
+    """:func:`allocate_rigid` on a story's rigidity (inputs already validated)."""
+    d, (xmin, ymin, xmax, ymax) = case.direction, plan_extent
+    is_x = d is Direction.X
+    width = (ymax - ymin) if is_x else (xmax - xmin)
+    acc1 = case.ecc_sign * accidental_eccentricity * width
     cm, cr = (center_of_mass[1], rig.ycr) if is_x else (center_of_mass[0], rig.xcr)
     F = float(case.sign * story_shear)
     e = cm + Ax * acc1 - cr
@@ -304,8 +324,8 @@ def allocate_rigid(
         Ax=float(Ax),
         torsion=float(T),
         J=rig.J,
-        pier_forces={i: float(v) for i, v in zip(ids, total, strict=True)},
-        pier_direct={i: float(v) for i, v in zip(ids, direct, strict=True)},
+        pier_forces=dict(zip(ids, total.tolist(), strict=True)),
+        pier_direct=dict(zip(ids, direct.tolist(), strict=True)),
         drift_ratio_max=_drift_ratio(
             rig, direction=d, load_offset=cm + acc1, plan_extent=plan_extent
         ),
@@ -346,8 +366,23 @@ def allocate_rigid_story(
     Returns:
         Results of the cases of ``rigid_cases(direction)``, in that order.
     """
-    out = []
+    out, rig = [], None  # the story's rigidity is the same in every case
     for case in rigid_cases(direction):
+        given = (
+            story_shear,
+            center_of_mass,
+            plan_extent,
+            case,
+            accidental_eccentricity,
+        )
+        _validate(*given, 1.0)
+        if rig is None:
+            rig = _rigidity(
+                piers,
+                level=level,
+                center_of_mass=center_of_mass,
+                plan_extent=plan_extent,
+            )
         kwargs = {
             "level": level,
             "story_shear": story_shear,
@@ -356,9 +391,10 @@ def allocate_rigid_story(
             "case": case,
             "accidental_eccentricity": accidental_eccentricity,
         }
-        result = allocate_rigid(piers, **kwargs)
-        ratio = result.drift_ratio_max
-        if amplify_torsion and ratio > _IRREGULAR_RATIO:
-            result = allocate_rigid(piers, **kwargs, Ax=s12_8_torsion.Ax(ratio, 1.0))
+        result = _allocate(rig, **kwargs, Ax=1.0)
+        if amplify_torsion and result.drift_ratio_max > _IRREGULAR_RATIO:
+            Ax = s12_8_torsion.Ax(result.drift_ratio_max, 1.0)
+            _validate(*given, Ax)
+            result = _allocate(rig, **kwargs, Ax=Ax)
         out.append(result)
     return tuple(out)
