@@ -1,4 +1,8 @@
-"""Child process of the benchmark: one shearline check, timed by stage (JSON on stdout)."""
+"""Child process of the benchmark: one shearline check, timed by stage (JSON on stdout).
+
+It runs the same code as ``shearline check`` (:func:`checks.pipeline.check_model`, then
+:func:`checks.pipeline.write_outputs`), with the pipeline's own stage timings.
+"""
 
 from __future__ import annotations
 
@@ -14,32 +18,32 @@ sys.path.insert(0, str(Path(__file__).resolve().parent.parent))
 
 def main(model: str, config: str, out: str) -> None:
     t0 = time.perf_counter()
-    from allocation.allocate import allocate
     from checks.config import load_config
-    from checks.pipeline import CheckRun, load_model, write_outputs
-    from checks.rules.run_rules import run_checks
+    from checks.pipeline import check_model, write_outputs
 
-    t_import = time.perf_counter()
     cfg = load_config(config)
-    m = load_model(model, cfg)
-    t_read = time.perf_counter()
-    a = allocate(m, cfg.seismic, cfg.loads, cfg.analysis)
-    t_alloc = time.perf_counter()
-    c = run_checks(m, a, cfg)
-    t_check = time.perf_counter()
-    write_outputs(CheckRun(model=m, config=cfg, allocation=a, checks=c), out)
+    t_import = time.perf_counter()
+    stages: dict[str, float] = {}
+    run = check_model(model, cfg, timings=stages)
+    t_checked = time.perf_counter()
+    write_outputs(run, out)
     t_write = time.perf_counter()
+    own = resource.getrusage(resource.RUSAGE_SELF)
+    workers = resource.getrusage(resource.RUSAGE_CHILDREN)
     json.dump(
         {
             "import": t_import - t0,
-            "read": t_read - t_import,
-            "allocate": t_alloc - t_read,
-            "check": t_check - t_alloc,
-            "write": t_write - t_check,
-            "walls": len(m.walls),
-            "piers": len(a.piers),
-            "findings": len(c.findings),
-            "maxrss_mb": resource.getrusage(resource.RUSAGE_SELF).ru_maxrss / 1024,
+            "read": stages["open"] + stages["read"],
+            "allocate": stages["allocate"],
+            "check": stages["check"] + stages["requirements"],
+            "requirements_wait": stages["requirements"],
+            "write": t_write - t_checked,
+            "walls": len(run.model.walls),
+            "piers": len(run.allocation.piers),
+            "findings": len(run.findings),
+            "maxrss_mb": own.ru_maxrss / 1024,
+            "worker_maxrss_mb": workers.ru_maxrss / 1024,
+            "cpu_s": own.ru_utime + own.ru_stime + workers.ru_utime + workers.ru_stime,
         },
         sys.stdout,
     )

@@ -90,15 +90,27 @@ def _check_storey_names(model: BuildingModel, config: ProjectConfig) -> None:
 
 
 def load_model(
-    model_path: str | os.PathLike, config: ProjectConfig, progress: Progress | None = None
+    model_path: str | os.PathLike,
+    config: ProjectConfig,
+    progress: Progress | None = None,
+    *,
+    ifc: object | None = None,
 ) -> BuildingModel:
-    """Read the IFC file with the config's shear-wall rules and diaphragm levels."""
+    """Read the IFC file with the config's shear-wall rules and diaphragm levels.
+
+    ``ifc`` is the file already opened with :func:`ifc_bridge.open_file.open_ifc`
+    (it is then not parsed again).
+    """
     from ifc_bridge.errors import IfcContentError
-    from ifc_bridge.read_model import read_model
+    from ifc_bridge.open_file import open_ifc
+    from ifc_bridge.read_model import read_model_file
+
+    opened = ifc if ifc is not None else open_ifc(model_path)
 
     def read(storeys: tuple[str, ...], report: Progress | None) -> BuildingModel:
-        return read_model(
-            model_path,
+        return read_model_file(
+            opened,
+            str(model_path),
             rules=config.match_rules,
             use_predefined_type=config.use_predefined_type,
             diaphragm_storeys=storeys,
@@ -120,13 +132,20 @@ def check_model(
     config: ProjectConfig | str | os.PathLike,
     *,
     progress: Progress | None = None,
+    timings: dict[str, float] | None = None,
 ) -> CheckRun:
     """Read, allocate and check one IFC model.
+
+    The IDS validation runs in a worker process while the model is read and
+    checked, and the geometry pass in another (:mod:`ifc_bridge.worker`).
 
     Args:
         model_path: The architect's IFC file.
         config: A :class:`ProjectConfig` or the path of its TOML file.
         progress: Optional ``progress(stage, done, total)`` callback.
+        timings: When given, filled with the wall-clock seconds of each stage
+            (``open``, ``read``, ``allocate``, ``check``, ``requirements``: the
+            wait for the IDS worker).
 
     Returns:
         The model, forces and findings.
@@ -139,24 +158,59 @@ def check_model(
     from allocation.allocate import allocate
     from checks.rules.run_rules import run_checks
     from ifc_bridge.open_file import open_ifc
+    from ifc_bridge.worker import PARALLEL_MIN, can_fork, start_call
 
+    clock = _Stopwatch(timings)
     cfg = _config(config)
     ifc = open_ifc(model_path)
     _check_unique_guids(ifc, str(model_path))
-    model = load_model(model_path, cfg, progress)
-    _check_storey_names(model, cfg)
+    clock.lap("open")
+    # the IDS validation needs only the open file: it runs in a worker meanwhile
+    requirements = start_call(
+        "requirements",
+        _requirements,
+        ifc,
+        model_path,
+        parallel=len(ifc.by_type("IfcWall")) >= PARALLEL_MIN and can_fork(),
+    )
     try:
-        allocation = allocate(model, cfg.seismic, cfg.loads, cfg.analysis)
-    except AllocationError as exc:
-        if model.source in str(exc):
-            raise
-        msg = f"{model.source}: {exc}"
-        raise AllocationError(msg) from exc
-    checks = run_checks(model, allocation, cfg)
+        model = load_model(model_path, cfg, progress, ifc=ifc)
+        _check_storey_names(model, cfg)
+        clock.lap("read")
+        try:
+            allocation = allocate(model, cfg.seismic, cfg.loads, cfg.analysis)
+        except AllocationError as exc:
+            if model.source in str(exc):
+                raise
+            msg = f"{model.source}: {exc}"
+            raise AllocationError(msg) from exc
+        clock.lap("allocate")
+        checks = run_checks(model, allocation, cfg)
+        clock.lap("check")
+        found = tuple(requirements.result())
+        clock.lap("requirements")
+    finally:
+        requirements.cancel()
     return CheckRun(
         model=model, config=cfg, allocation=allocation, checks=checks,
-        requirement_findings=tuple(_requirements(ifc, model_path)),
+        requirement_findings=found,
     )
+
+
+class _Stopwatch:
+    """Wall-clock seconds per stage into a caller's dict (nothing when it is None)."""
+
+    def __init__(self, into: dict[str, float] | None) -> None:
+        import time
+
+        self._into, self._now = into, time.perf_counter
+        self._last = self._now()
+
+    def lap(self, stage: str) -> None:
+        now = self._now()
+        if self._into is not None:
+            self._into[stage] = self._into.get(stage, 0.0) + now - self._last
+        self._last = now
 
 
 def _check_unique_guids(ifc, source: str) -> None:

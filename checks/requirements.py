@@ -10,6 +10,8 @@ finding naming the elements.
 from __future__ import annotations
 
 import os
+from collections.abc import Iterator
+from contextlib import contextmanager
 from pathlib import Path
 
 from checks.errors import OutputError
@@ -121,6 +123,36 @@ def write_requirements_ids(path: str | os.PathLike) -> Path:
     return path
 
 
+@contextmanager
+def _types_memoised() -> Iterator[None]:
+    """``ifcopenshell.util.element.get_type`` memoised while one file is validated.
+
+    ifctester asks for the type of each wall three times (predefined type, material,
+    applicability), and each answer walks the inverse index again; the file does not
+    change during a validation, so each element's type is looked up once. The
+    original function is restored afterwards.
+    """
+    import ifcopenshell.util.element as element
+
+    original = element.get_type
+    memo: dict[int, object] = {}
+
+    def get_type(inst):  # same signature and result as the original
+        key = inst.id()
+        if not key:
+            return original(inst)
+        found = memo.get(key, memo)
+        if found is memo:
+            found = memo[key] = original(inst)
+        return found
+
+    element.get_type = get_type
+    try:
+        yield
+    finally:
+        element.get_type = original
+
+
 def requirement_findings(ifc_file, *, source: str) -> list[Finding]:
     """Validate an open IFC file against the requirements; one finding per failure.
 
@@ -132,7 +164,8 @@ def requirement_findings(ifc_file, *, source: str) -> list[Finding]:
         Warning findings, one per failed specification, naming the elements.
     """
     doc = build_requirements()
-    doc.validate(ifc_file)
+    with _types_memoised():
+        doc.validate(ifc_file)
     out: list[Finding] = []
     for s in doc.specifications:
         if s.status is not False:

@@ -14,7 +14,7 @@ import numpy as np
 import shapely
 from numpy.typing import NDArray
 
-__all__ = ["Centreline", "centreline"]
+__all__ = ["Centreline", "centreline", "centrelines_along"]
 
 
 @dataclass(frozen=True, slots=True, kw_only=True)
@@ -63,6 +63,56 @@ def _mrr_direction(local: NDArray[np.float64]) -> NDArray[np.float64] | None:
     return d
 
 
+def centrelines_along(
+    plan_points: list[NDArray[np.float64]], directions: NDArray[np.float64]
+) -> list[Centreline | None]:
+    """Centrelines of many straight walls, each along its given direction, at once.
+
+    Common practice: as :func:`centreline` with a direction; numpy over all walls
+    together instead of one small array per wall.
+
+    Args:
+        plan_points: Per wall, its body vertices on plan, shape (n_i, 2) [m].
+        directions: Per wall, its unit direction, shape (walls, 2) [-].
+
+    Returns:
+        Per wall, its centreline, or None when it has fewer than two points.
+    """
+    if not plan_points:
+        return []
+    counts = np.fromiter((len(p) for p in plan_points), dtype=np.int64)
+    if (counts < 1).any():
+        keep = [k for k, c in enumerate(counts) if c >= 2]
+        sub = centrelines_along(
+            [plan_points[k] for k in keep], np.asarray(directions)[keep]
+        )
+        out: list[Centreline | None] = [None] * len(plan_points)
+        for k, line in zip(keep, sub, strict=True):
+            out[k] = line
+        return out
+    starts = np.concatenate(([0], np.cumsum(counts)[:-1]))
+    pts = np.concatenate([np.asarray(p, dtype=np.float64) for p in plan_points])
+    origin = pts[starts]
+    seg = np.repeat(np.arange(len(counts)), counts)
+    local = pts - origin[seg]
+    d = np.asarray(directions, dtype=np.float64)
+    n = np.column_stack((-d[:, 1], d[:, 0]))
+    s = local[:, 0] * d[seg, 0] + local[:, 1] * d[seg, 1]
+    t = local[:, 0] * n[seg, 0] + local[:, 1] * n[seg, 1]
+    smin, smax = np.minimum.reduceat(s, starts), np.maximum.reduceat(s, starts)
+    tmin, tmax = np.minimum.reduceat(t, starts), np.maximum.reduceat(t, starts)
+    tmid = (tmin + tmax) / 2.0
+    a = origin + d * smin[:, None] + n * tmid[:, None]
+    b = origin + d * smax[:, None] + n * tmid[:, None]
+    thickness = (tmax - tmin).tolist()
+    return [
+        None if c < 2 else Centreline(start=(ax, ay), end=(bx, by), thickness=th)
+        for c, (ax, ay), (bx, by), th in zip(
+            counts.tolist(), a.tolist(), b.tolist(), thickness, strict=True
+        )
+    ]
+
+
 def centreline(
     plan_points: NDArray[np.float64], direction: tuple[float, float] | None = None
 ) -> Centreline | None:
@@ -80,23 +130,11 @@ def centreline(
     pts = np.asarray(plan_points, dtype=np.float64)
     if len(pts) < 2:
         return None
+    if direction is not None:
+        return centrelines_along([pts], np.asarray([direction], dtype=np.float64))[0]
     origin = pts[0].copy()
     local = pts - origin
-    d = (
-        np.asarray(direction, dtype=np.float64)
-        if direction is not None
-        else _mrr_direction(local)
-    )
+    d = _mrr_direction(local)
     if d is None:
         return None
-    n = np.array([-d[1], d[0]])
-    s, t = local @ d, local @ n
-    smin, smax, tmin, tmax = s.min(), s.max(), t.min(), t.max()
-    tmid = (tmin + tmax) / 2.0
-    a = origin + d * smin + n * tmid
-    b = origin + d * smax + n * tmid
-    return Centreline(
-        start=(float(a[0]), float(a[1])),
-        end=(float(b[0]), float(b[1])),
-        thickness=float(tmax - tmin),
-    )
+    return centrelines_along([pts], d[None, :])[0]

@@ -23,7 +23,15 @@ import shapely.affinity
 from numpy.typing import NDArray
 from shapely.geometry import MultiPolygon, Polygon
 
-__all__ = ["KERNELS", "Mesh", "mesh_elements", "mesh_footprint"]
+from ifc_bridge.worker import PARALLEL_MIN, PendingCall, can_fork, start_call
+
+__all__ = [
+    "KERNELS",
+    "Mesh",
+    "mesh_elements",
+    "mesh_footprint",
+    "start_meshing",
+]
 
 _LOG = logging.getLogger(__name__)
 
@@ -183,3 +191,64 @@ def mesh_footprint(mesh: Mesh, *, up_only: bool) -> Polygon | MultiPolygon:
     polys = polys[shapely.area(polys) > 1e-12]
     union = shapely.union_all(polys)
     return shapely.affinity.translate(union, float(origin[0]), float(origin[1]))
+
+
+def _pack(meshes: dict[int, Mesh]) -> dict:
+    """Meshes as a few flat arrays (pickles fast: no per-mesh objects)."""
+    verts = [m.verts for m in meshes.values()]
+    faces = [m.faces for m in meshes.values()]
+    return {
+        "ids": np.fromiter(meshes, dtype=np.int64, count=len(meshes)),
+        "kernels": [m.kernel for m in meshes.values()],
+        "nv": np.array([len(v) for v in verts], dtype=np.int64),
+        "nf": np.array([len(f) for f in faces], dtype=np.int64),
+        "verts": np.concatenate(verts) if verts else np.zeros((0, 3)),
+        "faces": np.concatenate(faces) if faces else np.zeros((0, 3), np.int64),
+    }
+
+
+def _unpack(data: dict) -> dict[int, Mesh]:
+    verts = np.split(data["verts"], np.cumsum(data["nv"])[:-1])
+    faces = np.split(data["faces"], np.cumsum(data["nf"])[:-1])
+    return {
+        int(i): Mesh(verts=v, faces=f, kernel=k)
+        for i, v, f, k in zip(
+            data["ids"].tolist(), verts, faces, data["kernels"], strict=True
+        )
+    }
+
+
+def start_meshing(
+    ifc: ifcopenshell.file,
+    elements: Sequence[ifcopenshell.entity_instance],
+    *,
+    parallel: bool | None = None,
+) -> PendingCall[dict[int, Mesh]]:
+    """Start :func:`mesh_elements` in a worker process, so the caller reads on.
+
+    Common practice: the kernel pass is the reader's largest single cost and needs
+    only the open file, so it runs in a forked worker
+    (:func:`ifc_bridge.worker.start_call`) while the reader goes through storeys,
+    relations and properties; the result equals a serial :func:`mesh_elements`. A
+    model of fewer than ``PARALLEL_MIN`` elements is meshed in this process.
+
+    Args:
+        ifc: The open file.
+        elements: Walls, slabs, openings (and unfilled doors/windows) to mesh.
+        parallel: Force (True) or forbid (False) the worker; default: automatic.
+
+    Returns:
+        The pending pass; ``.result()`` gives the meshes by entity id [m].
+    """
+    elements = list(elements)
+    if parallel is None:
+        parallel = len(elements) >= PARALLEL_MIN and can_fork()
+    return start_call(
+        "geometry",
+        mesh_elements,
+        ifc,
+        elements,
+        encode=_pack,
+        decode=_unpack,
+        parallel=parallel,
+    )

@@ -16,7 +16,7 @@ from collections.abc import Callable, Sequence
 import ifcopenshell
 
 from ifc_bridge._diaphragms import build_diaphragms, underside_reach
-from ifc_bridge._geometry import mesh_elements
+from ifc_bridge._geometry import start_meshing
 from ifc_bridge._relations import Relations, build_relations
 from ifc_bridge._unfilled import unfilled_inserts, unfilled_issues
 from ifc_bridge.errors import IfcContentError
@@ -24,11 +24,11 @@ from ifc_bridge.model import BuildingModel
 from ifc_bridge.open_file import open_ifc, schema_name
 from ifc_bridge.read_levels import read_levels
 from ifc_bridge.read_slabs import read_slab_plans
-from ifc_bridge.read_walls import read_walls
-from ifc_bridge.shear_walls import MatchRule, recognise_shear_walls
+from ifc_bridge.read_walls import prepare_walls, read_walls
+from ifc_bridge.shear_walls import MatchRule
 from ifc_bridge.units import length_unit_scale
 
-__all__ = ["read_model"]
+__all__ = ["read_model", "read_model_file"]
 
 _LOG = logging.getLogger(__name__)
 
@@ -89,8 +89,45 @@ def read_model(
             unknown name in ``diaphragm_storeys``.
         UnitsError: The length unit cannot be converted.
     """
-    source = str(path)
-    ifc = open_ifc(path)
+    return read_model_file(
+        open_ifc(path),
+        str(path),
+        rules=rules,
+        use_predefined_type=use_predefined_type,
+        diaphragm_storeys=diaphragm_storeys,
+        progress=progress,
+    )
+
+
+def read_model_file(
+    ifc: ifcopenshell.file,
+    source: str,
+    *,
+    rules: Sequence[MatchRule] = (),
+    use_predefined_type: bool = True,
+    diaphragm_storeys: Sequence[str] = (),
+    progress: Progress | None = None,
+) -> BuildingModel:
+    """:func:`read_model` of a file already opened with :func:`open_ifc`.
+
+    Common practice: as :func:`read_model`; lets a caller that needs the open file
+    for more (requirement checks, GlobalId checks) parse it once.
+
+    Args:
+        ifc: The open file.
+        source: Its path, for messages and ``BuildingModel.source``.
+        rules: Assembly match rules, in config order.
+        use_predefined_type: Treat PredefinedType SHEAR as a shear wall.
+        diaphragm_storeys: As :func:`read_model`.
+        progress: Optional ``(stage, done, total)`` callback.
+
+    Returns:
+        The building model [SI: m].
+
+    Raises:
+        IfcContentError: As :func:`read_model`.
+        UnitsError: The length unit cannot be converted.
+    """
     if progress is not None:
         progress("open", 1, 1)
     scale = length_unit_scale(ifc, source)
@@ -101,10 +138,17 @@ def read_model(
         raise IfcContentError(msg)
     relations = build_relations(ifc)
     inserts = unfilled_inserts(ifc, relations)
-    meshes = mesh_elements(
-        ifc, _to_mesh(ifc, walls, relations, inserts), progress=progress
-    )
+    # the kernel pass runs in a worker while the walls' relations and properties
+    # are read here
+    pending = start_meshing(ifc, _to_mesh(ifc, walls, relations, inserts))
     cache: dict = {}
+    try:
+        prepared = prepare_walls(walls, scale=scale, cache=cache, relations=relations)
+        meshes = pending.result()
+    finally:
+        pending.cancel()
+    if progress is not None:
+        progress("geometry", len(meshes), len(meshes))
     plans, slab_issues = read_slab_plans(
         ifc, source, scale=scale, levels=storeys, meshes=meshes, cache=cache
     )
@@ -123,6 +167,9 @@ def read_model(
         cache=cache,
         reach=underside_reach(diaphragms, plans, levels),
         relations=relations,
+        prepared=prepared,
+        rules=rules,
+        use_predefined_type=use_predefined_type,
     )
     if progress is not None:
         progress("walls", len(walls), len(walls))
@@ -134,9 +181,7 @@ def read_model(
         cache=cache,
         path=source,
     )
-    segments = recognise_shear_walls(
-        read.segments, rules, use_predefined_type=use_predefined_type
-    )
+    segments = read.segments
     name, guid = _project(ifc)
     issues = (*storeys.issues, *slab_issues, *dia_issues, *read.issues, *insert_issues)
     _LOG.info(

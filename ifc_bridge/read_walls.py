@@ -8,25 +8,26 @@ centreline. World X-Y, metres, Z up.
 
 from __future__ import annotations
 
-from collections.abc import Mapping
+from collections.abc import Mapping, Sequence
 from dataclasses import dataclass
 
 import ifcopenshell
 import numpy as np
 from numpy.typing import NDArray
 
-from ifc_bridge._centreline import Centreline, centreline
+from ifc_bridge._centreline import Centreline, centreline, centrelines_along
 from ifc_bridge._direct import body_extrusion
 from ifc_bridge._geometry import Mesh
 from ifc_bridge._openings import wall_openings
 from ifc_bridge._relations import Relations, attr, build_relations
 from ifc_bridge._semantics import WallSemantics, wall_semantics
 from ifc_bridge._split import split_fields
-from ifc_bridge._wall_axis import wall_axis
+from ifc_bridge._wall_axis import AxisInfo, wall_axis
 from ifc_bridge.model import ImportIssue, IssueSeverity, Level, WallSegment
 from ifc_bridge.read_slabs import level_below
+from ifc_bridge.shear_walls import MatchRule, match_assembly
 
-__all__ = ["WallPlan", "WallsRead", "read_walls"]
+__all__ = ["PreparedWall", "WallPlan", "WallsRead", "prepare_walls", "read_walls"]
 
 _MIN_LENGTH = 1e-3  # [m]
 _THICKNESS_TOL = 0.005  # [m]; geometry vs material layers
@@ -64,6 +65,58 @@ class WallsRead:
     wall_storeys: tuple[tuple[str, str], ...]
     plans: tuple[WallPlan, ...]
     issues: tuple[ImportIssue, ...]
+
+
+@dataclass(frozen=True, slots=True, kw_only=True)
+class PreparedWall:
+    """What is known of a wall before its geometry: read while the kernel meshes.
+
+    Attributes:
+        wall: The IfcWall.
+        guid: Its GlobalId.
+        container: Its spatial container (IfcBuildingStorey), or None.
+        axis: Direction and curvature from its 'Axis' representation.
+        semantics: Name, type, materials, predefined type, properties.
+    """
+
+    wall: ifcopenshell.entity_instance
+    guid: str
+    container: ifcopenshell.entity_instance | None
+    axis: AxisInfo
+    semantics: WallSemantics
+
+
+def prepare_walls(
+    walls: Sequence[ifcopenshell.entity_instance],
+    *,
+    scale: float,
+    cache: dict[int, NDArray[np.float64]],
+    relations: Relations,
+) -> tuple[PreparedWall, ...]:
+    """The geometry-free part of reading every wall (relations, Axis, properties).
+
+    Common practice: as :func:`read_walls`; split out so that it runs while the
+    geometry kernel meshes the bodies (:func:`ifc_bridge._geometry.start_meshing`).
+
+    Args:
+        walls: The IfcWall entities, file order.
+        scale: Length unit scale [m per file unit].
+        cache: Placement memo.
+        relations: The file's relationship maps.
+
+    Returns:
+        One prepared wall per IfcWall, same order.
+    """
+    return tuple(
+        PreparedWall(
+            wall=wall,
+            guid=attr(wall, "GlobalId"),
+            container=relations.storey_of(wall),
+            axis=wall_axis(wall, cache),
+            semantics=wall_semantics(wall, scale, relations),
+        )
+        for wall in walls
+    )
 
 
 def _issue(
@@ -119,15 +172,36 @@ def _thickness(
     return line.thickness
 
 
+def _recognise(
+    whole: dict, ctx: _Context, memo: dict[tuple, tuple[bool, str]]
+) -> tuple[bool, str]:
+    """``(is_shear_wall, assembly)`` as :func:`recognise_shear_walls` sets them."""
+    key = (
+        whole["type_name"],
+        whole["name"] if ctx.rules_use_name else "",
+        whole["materials"],
+        whole["properties"],
+        whole["predefined_type"],
+    )
+    found = memo.get(key)
+    if found is None:
+        assembly = match_assembly(WallSegment(**whole), ctx.rules or ())
+        is_shear = bool(assembly) or (
+            ctx.use_predefined_type and whole["predefined_type"].upper() == "SHEAR"
+        )
+        found = memo[key] = (is_shear, assembly)
+    return found
+
+
 def _read_one(
-    wall: ifcopenshell.entity_instance,
+    prep: PreparedWall,
     ctx: _Context,
+    body: tuple[NDArray[np.float64], float, float] | None,
+    line: Centreline | None,
 ) -> tuple[str, tuple[WallSegment, ...], WallPlan | None, list[ImportIssue]]:
     issues: list[ImportIssue] = []
-    guid = attr(wall, "GlobalId")
-    container = ctx.relations.storey_of(wall)
+    wall, guid, container = prep.wall, prep.guid, prep.container
     storey = ctx.name_of.get(container.id(), "") if container is not None else ""
-    body = _body(wall, ctx.meshes, ctx.scale, ctx.cache)
     if body is None:
         msg = (
             f"{ctx.path}: wall {guid} ({wall.Name!r}) has no usable body geometry; not "
@@ -140,8 +214,9 @@ def _read_one(
             [_issue("wall_no_geometry", IssueSeverity.ERROR, msg, guid, storey)],
         )
     pts, base, top = body
-    axis = wall_axis(wall, ctx.cache)
-    line = centreline(pts, None if axis.curved else axis.direction)
+    axis = prep.axis
+    if line is None:
+        line = centreline(pts, None if axis.curved else axis.direction)
     if (
         line is None
         or line.length < _MIN_LENGTH
@@ -159,7 +234,7 @@ def _read_one(
             None,
             [_issue("wall_no_geometry", IssueSeverity.ERROR, msg, guid, storey)],
         )
-    sem = wall_semantics(wall, ctx.scale, ctx.relations)
+    sem = prep.semantics
     thickness = _thickness(wall, line, sem, axis.curved, ctx.path, issues)
     if not storey:
         lv = level_below(ctx.levels, base)
@@ -205,11 +280,38 @@ def _read_one(
         "assembly": "",
         "curved": axis.curved,
     }
+    if ctx.rules is not None:
+        whole["is_shear_wall"], whole["assembly"] = _recognise(whole, ctx, ctx.memo)
     storey_elevation = ctx.elevation_of[storey]
     parts = split_fields(
         whole, ctx.diaphragm_levels, storey_elevation=storey_elevation, reach=ctx.reach
     )
     return storey, parts, WallPlan(guid=guid, line=line, base=base, top=top), issues
+
+
+def _straight_lines(
+    prepared: Sequence[PreparedWall],
+    bodies: Sequence[tuple[NDArray[np.float64], float, float] | None],
+) -> list[Centreline | None]:
+    """Centrelines of the straight walls with an Axis direction, all at once.
+
+    The others (curved, no Axis, no body) get None and are done one by one.
+    """
+    out: list[Centreline | None] = [None] * len(prepared)
+    todo = [
+        k
+        for k, (p, b) in enumerate(zip(prepared, bodies, strict=True))
+        if b is not None and not p.axis.curved and p.axis.direction is not None
+    ]
+    if not todo:
+        return out
+    lines = centrelines_along(
+        [bodies[k][0] for k in todo],
+        np.asarray([prepared[k].axis.direction for k in todo], dtype=np.float64),
+    )
+    for k, line in zip(todo, lines, strict=True):
+        out[k] = line
+    return out
 
 
 def _first_elevations(levels: tuple[Level, ...]) -> dict[str, float]:
@@ -231,6 +333,10 @@ class _Context:
     reach: Mapping[str, float]
     relations: Relations
     elevation_of: Mapping[str, float]
+    rules: tuple[MatchRule, ...] | None
+    use_predefined_type: bool
+    memo: dict[tuple, tuple[bool, str]]
+    rules_use_name: bool
 
 
 def read_walls(
@@ -244,6 +350,9 @@ def read_walls(
     cache: dict[int, NDArray[np.float64]],
     reach: Mapping[str, float] | None = None,
     relations: Relations | None = None,
+    prepared: Sequence[PreparedWall] | None = None,
+    rules: Sequence[MatchRule] | None = None,
+    use_predefined_type: bool = True,
 ) -> WallsRead:
     """Wall segments of every IfcWall, split at the diaphragm levels they pass.
 
@@ -261,6 +370,11 @@ def read_walls(
         reach: Level name -> how far below a level a wall top may stop and still
             support it (slab depth + 0.05 m, at least 0.15 m) [m].
         relations: The file's relationship maps (built here when not given).
+        prepared: :func:`prepare_walls` of the file's walls, when already read.
+        rules: Assembly match rules: recognise shear walls while reading, as
+            :func:`ifc_bridge.shear_walls.recognise_shear_walls` would; None leaves
+            every segment unrecognised.
+        use_predefined_type: With ``rules``: PredefinedType SHEAR is a shear wall.
 
     Returns:
         Segments, the storey of every wall, plan rectangles and issues.
@@ -276,14 +390,24 @@ def read_walls(
         reach=dict(reach or {}),
         relations=relations if relations is not None else build_relations(ifc),
         elevation_of=_first_elevations(levels),
+        rules=tuple(rules) if rules is not None else None,
+        use_predefined_type=use_predefined_type,
+        memo={},
+        rules_use_name=any(r.name is not None for r in rules or ()),
     )
+    if prepared is None:
+        prepared = prepare_walls(
+            ifc.by_type("IfcWall"), scale=scale, cache=cache, relations=ctx.relations
+        )
     segments: list[WallSegment] = []
     storeys: list[tuple[str, str]] = []
     plans: list[WallPlan] = []
     issues: list[ImportIssue] = []
-    for wall in ifc.by_type("IfcWall"):
-        storey, parts, plan, found = _read_one(wall, ctx)
-        storeys.append((parts[0].guid if parts else attr(wall, "GlobalId"), storey))
+    bodies = [_body(p.wall, ctx.meshes, ctx.scale, ctx.cache) for p in prepared]
+    lines = _straight_lines(prepared, bodies)
+    for prep, body, line in zip(prepared, bodies, lines, strict=True):
+        storey, parts, plan, found = _read_one(prep, ctx, body, line)
+        storeys.append((parts[0].guid if parts else prep.guid, storey))
         segments.extend(parts)
         issues.extend(found)
         if plan is not None:

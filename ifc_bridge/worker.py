@@ -1,0 +1,168 @@
+"""Run one function in a forked worker process while the caller goes on.
+
+The reader's largest costs (the geometry kernel pass, the IDS validation) need only the
+open IFC file and give back plain data. On a machine with two or more cores each can
+run in a child made with ``os.fork``: the parsed file is shared copy-on-write, not
+parsed again, and the child's result comes back pickled through a pipe. Without
+``fork`` (Windows), with one core, or when asked not to, the function runs in this
+process when its result is first wanted. A worker that fails or dies (a kernel crash
+on one bad body kills only the worker) is replaced by running the function here, so
+the answer is always the serial one.
+
+Set ``SHEARLINE_WORKERS=0`` in the environment to run everything in one process.
+"""
+
+from __future__ import annotations
+
+import contextlib
+import logging
+import os
+import pickle
+import signal
+from collections.abc import Callable
+from dataclasses import dataclass, field
+from typing import Any, Generic, TypeVar
+
+__all__ = ["PARALLEL_MIN", "PendingCall", "can_fork", "start_call"]
+
+_LOG = logging.getLogger(__name__)
+
+T = TypeVar("T")
+
+# Fewer elements (walls, or walls + slabs + openings) than this: do it in this
+# process. A fork costs ~10 ms and pays only when there is work to overlap.
+PARALLEL_MIN = 500
+
+
+def _usable_cpus() -> int:
+    try:
+        return len(os.sched_getaffinity(0))
+    except AttributeError:  # not on Linux
+        return os.cpu_count() or 1
+
+
+def can_fork() -> bool:
+    """True when a worker process would run in parallel with this one."""
+    if os.environ.get("SHEARLINE_WORKERS", "").strip() == "0":
+        return False
+    return hasattr(os, "fork") and _usable_cpus() >= 2
+
+
+@dataclass(slots=True, kw_only=True)
+class PendingCall(Generic[T]):
+    """A call under way in a worker process, or to be made here on demand.
+
+    Attributes:
+        name: What it computes, for log messages.
+        fn: The function.
+        args: Its positional arguments.
+        decode: Turns the worker's pickled value into the result (identity default).
+        pid: Worker process id, or 0 when there is none.
+        fd: Read end of the worker's pipe, or -1.
+    """
+
+    name: str
+    fn: Callable[..., Any]
+    args: tuple[Any, ...] = ()
+    decode: Callable[[Any], T] | None = None
+    pid: int = 0
+    fd: int = -1
+    _value: Any = field(default=None)
+    _done: bool = field(default=False)
+
+    def result(self) -> T:
+        """The function's result; waits for the worker (or runs the function here)."""
+        if self._done:
+            return self._value
+        if self.pid:
+            value, ok = self._collect()
+            if ok:
+                self._value, self._done = value, True
+                return value
+        value = self.fn(*self.args)
+        self._value, self._done = value, True
+        return value
+
+    def _collect(self) -> tuple[Any, bool]:
+        with os.fdopen(self.fd, "rb") as pipe:
+            payload = pipe.read()
+        _, status = os.waitpid(self.pid, 0)
+        self.pid, self.fd = 0, -1
+        if status != 0 or not payload:
+            _LOG.warning(
+                "%s worker ended with status %s; running it in this process",
+                self.name,
+                status,
+            )
+            return None, False
+        try:
+            value = pickle.loads(payload)
+            return (self.decode(value) if self.decode else value), True
+        except Exception as exc:
+            _LOG.warning("%s worker sent an unreadable result (%s)", self.name, exc)
+            return None, False
+
+    def cancel(self) -> None:
+        """Stop a worker whose result is no longer wanted (the caller failed)."""
+        if not self.pid:
+            return
+        with contextlib.suppress(ProcessLookupError):
+            os.kill(self.pid, signal.SIGKILL)
+        os.waitpid(self.pid, 0)
+        os.close(self.fd)
+        self.pid, self.fd = 0, -1
+
+
+def start_call(
+    name: str,
+    fn: Callable[..., Any],
+    *args: Any,
+    encode: Callable[[Any], Any] | None = None,
+    decode: Callable[[Any], T] | None = None,
+    parallel: bool | None = None,
+) -> PendingCall[T]:
+    """Start ``fn(*args)`` in a forked worker; its result via ``.result()``.
+
+    Args:
+        name: What it computes, for log messages.
+        fn: A function whose result pickles (after ``encode``).
+        *args: Its arguments (shared with the worker by the fork, not pickled).
+        encode: Applied to the result in the worker before pickling (compact form).
+        decode: Applied to the unpickled value in this process; ``decode(encode(r))``
+            must equal ``r``.
+        parallel: Force (True) or forbid (False) the worker; default :func:`can_fork`.
+
+    Returns:
+        The pending call.
+    """
+    pending: PendingCall[T] = PendingCall(name=name, fn=fn, args=args, decode=decode)
+    if parallel is None:
+        parallel = can_fork()
+    if not parallel or not hasattr(os, "fork"):
+        return pending
+    read_fd, write_fd = os.pipe()
+    try:
+        pid = os.fork()
+    except OSError as exc:  # no process to spare: run it here later
+        os.close(read_fd)
+        os.close(write_fd)
+        _LOG.warning("cannot start the %s worker (%s)", name, exc)
+        return pending
+    if pid == 0:  # the worker: compute, send, leave without the parent's cleanup
+        code = 1
+        try:
+            os.close(read_fd)
+            value = fn(*args)
+            payload = pickle.dumps(
+                encode(value) if encode else value, protocol=pickle.HIGHEST_PROTOCOL
+            )
+            with os.fdopen(write_fd, "wb") as pipe:
+                pipe.write(payload)
+            code = 0
+        except BaseException:
+            code = 1
+        finally:
+            os._exit(code)
+    os.close(write_fd)
+    pending.pid, pending.fd = pid, read_fd
+    return pending
