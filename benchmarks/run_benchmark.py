@@ -11,11 +11,16 @@ For each size (storeys x walls per storey) it generates a synthetic building (ca
 * ``open``: a bare ``ifcopenshell.open`` of the file;
 * ``floor``: a process that opens the file and runs one pass of ifcopenshell's fastest
   geometry kernel (``geometry_library="manifold"``) over its walls and slabs;
-* ``check``: ``shearline check`` end to end, and by stage (read, allocate, check, write).
+* ``check``: ``shearline check`` end to end (the real command, ``python -m checks.cli
+  check MODEL --config benchmark.toml --out DIR -q``), and, in a separate run of the
+  same pipeline code, by stage (import, read, allocate, check, write).
 
-It prints the ratios (check / floor), peak memory against the floor's, the share of
-allocation + checks in the total, and the scaling exponent of each time across sizes
-(slope of log time against log walls). Targets: check within 1.5x of the floor on the
+It prints the ratios (check / floor), peak memory against the floor's (the main
+process, and the largest worker process), the CPU seconds of all processes, the share
+of allocation + checks in the total, and the scaling exponent of each time across
+sizes (slope of log time against log walls). shearline runs its geometry pass and its
+IDS validation in forked worker processes when the machine has two cores or more;
+``SHEARLINE_WORKERS=0`` runs it in one process, for comparison. Targets: check within 1.5x of the floor on the
 largest model, allocation and checks under 10 % of the total, near-linear growth.
 """
 
@@ -44,7 +49,8 @@ def _child(args: list[str]) -> tuple[float, dict]:
     if out.returncode not in (0, 1):
         msg = f"{' '.join(args)} failed ({out.returncode}): {out.stderr.strip()[-400:]}"
         raise SystemExit(msg)
-    return elapsed, json.loads(out.stdout.strip().splitlines()[-1])
+    last = out.stdout.strip().splitlines()[-1:] or ["{}"]
+    return elapsed, (json.loads(last[0]) if last[0].startswith("{") else {})
 
 
 def _best(args: list[str], repeat: int) -> tuple[float, dict]:
@@ -66,6 +72,10 @@ def _model(size: str) -> tuple[Path, int]:
         generate(storeys, walls, path)
         print(f"generated {path.name} in {time.perf_counter() - t:.1f} s", flush=True)
     return path, storeys * walls
+
+
+def _total(stages: dict) -> float:
+    return sum(stages[k] for k in ("import", "read", "allocate", "check", "write"))
 
 
 def _slope(xs: list[float], ys: list[float]) -> float:
@@ -92,7 +102,21 @@ def main() -> None:
         _, open_info = _best([str(HERE / "_floor.py"), str(path), "open"], a.repeat)
         t_floor, floor = _best([str(HERE / "_floor.py"), str(path), "floor"], a.repeat)
         with tempfile.TemporaryDirectory() as out:
-            t_check, stages = _best(
+            t_check, _ = _best(
+                [
+                    "-m",
+                    "checks.cli",
+                    "check",
+                    str(path),
+                    "--config",
+                    str(config),
+                    "--out",
+                    out,
+                    "-q",
+                ],
+                a.repeat,
+            )
+            _, stages = _best(
                 [str(HERE / "_stages.py"), str(path), str(config), out], a.repeat
             )
         rows.append(
@@ -107,15 +131,17 @@ def main() -> None:
                 stages,
             )
         )
-        share = (stages["allocate"] + stages["check"]) / t_check
+        share = (stages["allocate"] + stages["check"]) / _total(stages)
         print(
             f"{size:>7} {walls:>6} walls {path.stat().st_size / 1e6:6.1f} MB | open "
             f"{open_info['open']:.2f} s | floor {t_floor:.2f} s (geometry "
             f"{floor['geometry']:.2f}) | check {t_check:.2f} s = import {stages['import']:.2f}"
             f" + read {stages['read']:.2f} + allocate {stages['allocate']:.2f} + check "
-            f"{stages['check']:.2f} + write {stages['write']:.2f} | ratio "
+            f"{stages['check']:.2f} + write {stages['write']:.2f} (stages "
+            f"{_total(stages):.2f}, CPU {stages['cpu_s']:.1f} s) | ratio "
             f"{t_check / t_floor:.2f} | alloc+check {share:.1%} | peak "
-            f"{stages['maxrss_mb']:.0f} MB vs floor {floor['maxrss_mb']:.0f} MB "
+            f"{stages['maxrss_mb']:.0f} MB (worker {stages['worker_maxrss_mb']:.0f}) vs "
+            f"floor {floor['maxrss_mb']:.0f} MB "
             f"({stages['maxrss_mb'] / floor['maxrss_mb']:.2f}x)",
             flush=True,
         )

@@ -38,6 +38,9 @@ class WallOpenings:
     issues: tuple[ImportIssue, ...]
 
 
+_NONE = WallOpenings(openings=(), issues=())
+
+
 def opening_points(
     element: ifcopenshell.entity_instance,
     meshes: Mapping[int, Mesh],
@@ -91,12 +94,14 @@ def wall_openings(
     """
     out: list[Opening] = []
     issues: list[ImportIssue] = []
-    start = np.asarray(line.start)
-    d = line.direction
     if openings is None:
         openings = [
             r.RelatedOpeningElement for r in getattr(wall, "HasOpenings", ()) or ()
         ]
+    if not openings:
+        return _NONE
+    start = np.asarray(line.start)
+    d = line.direction
     for op in openings:
         pts = opening_points(op, meshes, scale, cache)
         if pts is None:

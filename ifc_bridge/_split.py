@@ -11,6 +11,7 @@ underside). Elevations in metres, Z up.
 from __future__ import annotations
 
 import dataclasses
+from bisect import bisect_right
 from collections.abc import Mapping
 from typing import Any
 
@@ -21,6 +22,19 @@ __all__ = ["BASE_TOL", "TOP_TOL", "split_fields", "split_wall", "supported_level
 BASE_TOL = 0.05  # [m]
 TOP_TOL = 0.15  # [m]
 _EPS = 1e-6  # [m]; float noise (3.85 + 0.15 < 4.0)
+
+
+_ELEVATIONS: dict[int, tuple[tuple[Level, ...], list[float]]] = {}
+
+
+def _elevations(levels: tuple[Level, ...]) -> list[float]:
+    """Elevations of sorted levels, memoised per tuple (the reader passes one tuple)."""
+    found = _ELEVATIONS.get(id(levels))
+    if found is None or found[0] is not levels:
+        if len(_ELEVATIONS) > 64:
+            _ELEVATIONS.clear()
+        found = _ELEVATIONS[id(levels)] = (levels, [lv.elevation for lv in levels])
+    return found[1]
 
 
 def supported_level(
@@ -44,15 +58,22 @@ def supported_level(
     Returns:
         Level name, or ``""`` (parapet, wall above the roof).
     """
-    for lv in diaphragm_levels:
-        if lv.elevation > above + BASE_TOL:
-            limit = top + max(TOP_TOL, (reach or {}).get(lv.name, TOP_TOL)) + _EPS
-            return lv.name if lv.elevation <= limit else ""
-    return ""
+    elevations = _elevations(diaphragm_levels)
+    k = bisect_right(elevations, above + BASE_TOL)  # first level strictly above
+    if k == len(elevations):
+        return ""
+    lv = diaphragm_levels[k]
+    limit = top + max(TOP_TOL, (reach or {}).get(lv.name, TOP_TOL)) + _EPS
+    return lv.name if lv.elevation <= limit else ""
 
 
 def _rebase(openings: tuple[Opening, ...], lo: float, hi: float) -> tuple[Opening, ...]:
     """Openings of the part [lo, hi] (heights above the wall base), re-based to lo."""
+    if lo == 0.0 and all(
+        op.bottom >= 0.0 and op.top <= hi and op.top - op.bottom > 1e-3
+        for op in openings
+    ):
+        return openings  # the whole wall: every opening as it is
     out = []
     for op in openings:
         b, t = max(op.bottom, lo), min(op.top, hi)
@@ -112,7 +133,13 @@ def split_fields(
     """
     base, top = whole["base_elevation"], whole["top_elevation"]
     low = max(base, storey_elevation) + BASE_TOL
-    cuts = [lv for lv in diaphragm_levels if low < lv.elevation < top - TOP_TOL]
+    elevations = _elevations(diaphragm_levels)
+    first = bisect_right(elevations, low)
+    cuts = [
+        lv
+        for lv in diaphragm_levels[first : bisect_right(elevations, top - TOP_TOL) + 1]
+        if low < lv.elevation < top - TOP_TOL
+    ]
     bounds = [base, *(lv.elevation for lv in cuts), top]
     storeys = [whole["storey"], *(lv.name for lv in cuts)]
     floors = [max(base, storey_elevation), *(lv.elevation for lv in cuts)]
