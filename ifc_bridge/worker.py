@@ -4,10 +4,11 @@ The reader's largest costs (the geometry kernel pass, the IDS validation) need o
 open IFC file and give back plain data. On a machine with two or more cores each can
 run in a child made with ``os.fork``: the parsed file is shared copy-on-write, not
 parsed again, and the child's result comes back pickled through a pipe. Without
-``fork`` (Windows), with one core, or when asked not to, the function runs in this
-process when its result is first wanted. A worker that fails or dies (a kernel crash
-on one bad body kills only the worker) is replaced by running the function here, so
-the answer is always the serial one.
+``fork`` (Windows; and macOS, whose system libraries are not fork-safe), with one
+core, or when asked not to, the function runs in this process when its result is
+first wanted. A worker that raises, dies or sends nothing readable is replaced by
+running the function here (with a logged warning), so the answer, or the error, is
+always the serial one.
 
 Set ``SHEARLINE_WORKERS=0`` in the environment to run everything in one process.
 """
@@ -19,6 +20,7 @@ import logging
 import os
 import pickle
 import signal
+import sys
 from collections.abc import Callable
 from dataclasses import dataclass, field
 from typing import Any, Generic, TypeVar
@@ -45,7 +47,9 @@ def can_fork() -> bool:
     """True when a worker process would run in parallel with this one."""
     if os.environ.get("SHEARLINE_WORKERS", "").strip() == "0":
         return False
-    return hasattr(os, "fork") and _usable_cpus() >= 2
+    # fork is safe with the libraries here on Linux; macOS system frameworks are not
+    # fork-safe (Python itself stopped forking there by default), Windows has none
+    return sys.platform.startswith("linux") and _usable_cpus() >= 2
 
 
 @dataclass(slots=True, kw_only=True)
