@@ -1,0 +1,50 @@
+"""A check with worker processes gives exactly the findings of a one-process check.
+
+Common practice: moving the geometry pass and the IDS validation (buildingSMART IDS 1.0,
+validated by ifctester) into forked workers must not change any number or finding.
+"""
+
+from __future__ import annotations
+
+import os
+
+import pytest
+
+import ifc_bridge._geometry as geometry
+from checks.pipeline import check_model
+from ifc_bridge import worker
+from tests.conftest import SAMPLE_MODELS
+
+DEMO = SAMPLE_MODELS / "demo_building.ifc"
+CONFIG = SAMPLE_MODELS / "demo.toml"
+
+
+@pytest.mark.skipif(not hasattr(os, "fork"), reason="os.fork is POSIX only")
+def test_workers_change_no_finding_and_no_force(monkeypatch) -> None:
+    monkeypatch.setenv("SHEARLINE_WORKERS", "0")
+    serial = check_model(DEMO, CONFIG)
+    monkeypatch.delenv("SHEARLINE_WORKERS")
+    monkeypatch.setattr(worker, "PARALLEL_MIN", 0)  # the demo is small: force them
+    monkeypatch.setattr(geometry, "PARALLEL_MIN", 0)
+    monkeypatch.setattr(worker, "_usable_cpus", lambda: 2)
+    monkeypatch.setattr(worker.sys, "platform", "linux")
+    started: list[str] = []
+    real_start = worker.start_call
+
+    def spy(name, *args, **kwargs):
+        pending = real_start(name, *args, **kwargs)
+        if pending.pid:
+            started.append(name)
+        return pending
+
+    monkeypatch.setattr(worker, "start_call", spy)
+    monkeypatch.setattr(geometry, "start_call", spy)
+    timings: dict[str, float] = {}
+    forked = check_model(DEMO, CONFIG, timings=timings)
+    assert sorted(started) == ["geometry", "requirements"]  # both really forked
+    assert forked.model == serial.model
+    assert forked.requirement_findings == serial.requirement_findings
+    assert forked.findings == serial.findings
+    assert forked.allocation.piers == serial.allocation.piers
+    assert set(timings) == {"open", "read", "allocate", "check", "requirements"}
+    assert all(t >= 0.0 for t in timings.values())
