@@ -157,40 +157,43 @@ def check_model(
     """
     from allocation.allocate import allocate
     from checks.rules.run_rules import run_checks
+    from ifc_bridge.gc_pause import collection_paused
     from ifc_bridge.open_file import open_ifc
     from ifc_bridge.worker import PARALLEL_MIN, can_fork, start_call
 
-    clock = _Stopwatch(timings)
-    cfg = _config(config)
-    ifc = open_ifc(model_path)
-    _check_unique_guids(ifc, str(model_path))
-    clock.lap("open")
-    # the IDS validation needs only the open file: it runs in a worker meanwhile
-    requirements = start_call(
-        "requirements",
-        _requirements,
-        ifc,
-        model_path,
-        parallel=len(ifc.by_type("IfcWall")) >= PARALLEL_MIN and can_fork(),
-    )
-    try:
-        model = load_model(model_path, cfg, progress, ifc=ifc)
-        _check_storey_names(model, cfg)
-        clock.lap("read")
+    with collection_paused():
+        clock = _Stopwatch(timings)
+        cfg = _config(config)
+        ifc = open_ifc(model_path)
+        _check_unique_guids(ifc, str(model_path))
+        clock.lap("open")
+        # the IDS validation needs only the open file: it runs in a worker meanwhile
+        requirements = start_call(
+            "requirements",
+            _requirements,
+            ifc,
+            model_path,
+            parallel=len(ifc.by_type("IfcWall")) >= PARALLEL_MIN and can_fork(),
+            nice=10,  # behind the reader and the geometry worker: needed last
+        )
         try:
-            allocation = allocate(model, cfg.seismic, cfg.loads, cfg.analysis)
-        except AllocationError as exc:
-            if model.source in str(exc):
-                raise
-            msg = f"{model.source}: {exc}"
-            raise AllocationError(msg) from exc
-        clock.lap("allocate")
-        checks = run_checks(model, allocation, cfg)
-        clock.lap("check")
-        found = tuple(requirements.result())
-        clock.lap("requirements")
-    finally:
-        requirements.cancel()
+            model = load_model(model_path, cfg, progress, ifc=ifc)
+            _check_storey_names(model, cfg)
+            clock.lap("read")
+            try:
+                allocation = allocate(model, cfg.seismic, cfg.loads, cfg.analysis)
+            except AllocationError as exc:
+                if model.source in str(exc):
+                    raise
+                msg = f"{model.source}: {exc}"
+                raise AllocationError(msg) from exc
+            clock.lap("allocate")
+            checks = run_checks(model, allocation, cfg)
+            clock.lap("check")
+            found = tuple(requirements.result())
+            clock.lap("requirements")
+        finally:
+            requirements.cancel()
     return CheckRun(
         model=model, config=cfg, allocation=allocation, checks=checks,
         requirement_findings=found,

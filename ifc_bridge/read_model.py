@@ -20,6 +20,7 @@ from ifc_bridge._geometry import start_meshing
 from ifc_bridge._relations import Relations, build_relations
 from ifc_bridge._unfilled import unfilled_inserts, unfilled_issues
 from ifc_bridge.errors import IfcContentError
+from ifc_bridge.gc_pause import collection_paused
 from ifc_bridge.model import BuildingModel
 from ifc_bridge.open_file import open_ifc, schema_name
 from ifc_bridge.read_levels import read_levels
@@ -89,14 +90,15 @@ def read_model(
             unknown name in ``diaphragm_storeys``.
         UnitsError: The length unit cannot be converted.
     """
-    return read_model_file(
-        open_ifc(path),
-        str(path),
-        rules=rules,
-        use_predefined_type=use_predefined_type,
-        diaphragm_storeys=diaphragm_storeys,
-        progress=progress,
-    )
+    with collection_paused():
+        return read_model_file(
+            open_ifc(path),
+            str(path),
+            rules=rules,
+            use_predefined_type=use_predefined_type,
+            diaphragm_storeys=diaphragm_storeys,
+            progress=progress,
+        )
 
 
 def read_model_file(

@@ -124,6 +124,7 @@ def start_call(
     encode: Callable[[Any], Any] | None = None,
     decode: Callable[[Any], T] | None = None,
     parallel: bool | None = None,
+    nice: int = 0,
 ) -> PendingCall[T]:
     """Start ``fn(*args)`` in a forked worker; its result via ``.result()``.
 
@@ -135,6 +136,8 @@ def start_call(
         decode: Applied to the unpickled value in this process; ``decode(encode(r))``
             must equal ``r``.
         parallel: Force (True) or forbid (False) the worker; default :func:`can_fork`.
+        nice: Added to the worker's scheduling niceness (POSIX ``nice``): a worker
+            whose result is wanted last yields the cores to the others meanwhile.
 
     Returns:
         The pending call.
@@ -156,6 +159,8 @@ def start_call(
         code = 1
         try:
             os.close(read_fd)
+            if nice:
+                os.nice(nice)
             value = fn(*args)
             payload = pickle.dumps(
                 encode(value) if encode else value, protocol=pickle.HIGHEST_PROTOCOL
