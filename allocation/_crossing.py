@@ -20,7 +20,7 @@ from dataclasses import dataclass
 import shapely
 from shapely.geometry import Polygon
 
-from allocation._memo import Memo
+from allocation._memo import Memo, float_bytes
 from allocation.results import ResistanceLine
 from ifc_bridge.model import Diaphragm, Direction
 
@@ -196,8 +196,9 @@ def crossing_on(
     line: ResistanceLine, region: RegionProbe, tolerance: float
 ) -> Crossing | None:
     """:func:`line_crossing`; from memory for a region and line met before."""
-    values = (line.offset, line.offset_range, line.wall_extent, tolerance)
-    key = (region.wkb, line.direction, repr(values))
+    band = line.offset_range
+    values = (line.offset, *line.wall_extent, tolerance, band is None)
+    key = (region.wkb, line.direction, float_bytes((*values, *(band or ()))))
     found = _CROSSINGS.get(key, lambda: _cut(line, region, tolerance))
     if found is None:
         return None

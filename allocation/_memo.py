@@ -2,20 +2,32 @@
 
 A tower's typical floors have the same slab outline and lines level after level, so
 the same region split and line crossings come up again and again. Keys are built
-from exact values (WKB bytes of geometry, ``repr`` of floats, so ``-0.0`` and ``0.0``
-stay apart); an entry is only reused for bit-identical input, so a result from
-memory is exactly the one a fresh computation gives.
+from exact values (WKB bytes of geometry, the IEEE bytes of floats from
+:func:`float_bytes`, so ``-0.0`` and ``0.0`` stay apart); an entry is only reused for
+bit-identical input, so a result from memory is exactly the one a fresh computation
+gives.
 """
 
 from __future__ import annotations
 
+import struct
 from collections import OrderedDict
-from collections.abc import Callable, Hashable
+from collections.abc import Callable, Hashable, Iterable
 from typing import Generic, TypeVar
 
-__all__ = ["Memo"]
+__all__ = ["Memo", "float_bytes"]
 
 V = TypeVar("V")
+
+
+def float_bytes(values: Iterable[float]) -> bytes:
+    """The values as IEEE 754 doubles, back to back: an exact, hashable key part.
+
+    Unlike the floats themselves (``-0.0 == 0.0``), the bytes tell every distinct
+    double apart; callers put counts in the sequence wherever its shape varies.
+    """
+    flat = tuple(values)
+    return struct.pack(f"{len(flat)}d", *flat)
 
 
 class Memo(Generic[V]):
@@ -43,6 +55,13 @@ class Memo(Generic[V]):
             return value
         self._entries.move_to_end(key)
         return value
+
+    def put(self, key: Hashable, value: V) -> None:
+        """Hold ``value`` for ``key`` (replacing any), as the most recent entry."""
+        self._entries[key] = value
+        self._entries.move_to_end(key)
+        if len(self._entries) > self.size:
+            self._entries.popitem(last=False)
 
     def clear(self) -> None:
         """Forget every entry."""

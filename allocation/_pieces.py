@@ -26,10 +26,10 @@ from shapely.geometry import MultiLineString, Polygon
 from shapely.geometry.base import BaseGeometry
 from shapely.ops import split
 
-from allocation._memo import Memo
+from allocation._memo import Memo, float_bytes
 from ifc_bridge.model import Direction
 
-__all__ = ["Piece", "Support", "split_region", "to_local", "to_plan"]
+__all__ = ["Piece", "Support", "split_key", "split_region", "to_local", "to_plan"]
 
 _EPS = 1e-6  # [m] contact tolerance between a piece edge and a line
 _MIN_AREA = 1e-9  # [m²] slivers from round-off are dropped
@@ -207,8 +207,23 @@ def _split_by_chords(poly: Polygon, chords: BaseGeometry | None) -> list[Polygon
     return [poly] if chords is None else _split(poly, chords)
 
 
-def split_region(
+def split_key(
     local: Polygon, supports: Sequence[Support], tol: float = _EPS
+) -> tuple[bytes, bytes]:
+    """What :func:`split_region` depends on, exactly: outline, tolerance and chords."""
+    flat = [tol, len(supports)]
+    for s in supports:
+        flat += (s.v, len(s.segments), *(c for ab in s.segments for c in ab))
+        flat += (len(s.spans), *(c for ab in s.spans for c in ab))
+    return (local.wkb, float_bytes(flat))
+
+
+def split_region(
+    local: Polygon,
+    supports: Sequence[Support],
+    tol: float = _EPS,
+    *,
+    key: tuple[bytes, bytes] | None = None,
 ) -> list[Piece]:
     """Split one region (local frame) by its lines' chords into spanning pieces.
 
@@ -225,15 +240,13 @@ def split_region(
         supports: The lines' chords on this region.
         tol: Line tolerance [m]: support ends closer than this to the region's
             edge do not cut it across.
+        key: ``split_key(local, supports, tol)`` when the caller has it already.
 
     Returns:
         The pieces, ordered by centroid (v, then u), with their supports.
     """
-    key = (
-        local.wkb,
-        repr(tol),
-        repr(tuple((s.v, s.segments, s.spans) for s in supports)),
-    )
+    if key is None:
+        key = split_key(local, supports, tol)
     cells = _SPLITS.get(key, lambda: _split_region(local, supports, tol))
     return [
         Piece(local=poly, supports=tuple(supports[i] for i in touching))

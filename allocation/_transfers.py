@@ -7,7 +7,12 @@ pier above resists is delivered, with the same sign, to the diaphragm it stands 
 from __future__ import annotations
 
 from collections.abc import Mapping, Sequence
+from operator import attrgetter
 
+import numpy as np
+
+from allocation._columns import points, segments
+from allocation._records import maker
 from allocation.errors import AllocationError
 from allocation.lines import along, perpendicular
 from allocation.results import (
@@ -20,7 +25,10 @@ from allocation.results import (
 )
 from ifc_bridge.model import Direction
 
-__all__ = ["stands_on", "transfer_point_loads"]
+__all__ = ["split_transfers", "stands_on", "transfer_point_loads"]
+
+_ENDS = attrgetter("start", "end")
+_point_load = maker(PointLoad)  # PointLoad(...), faster for the many stacked walls
 
 
 def stands_on(pier: Pier, line: ResistanceLine, *, tolerance: float) -> bool:
@@ -45,6 +53,103 @@ def stands_on(pier: Pier, line: ResistanceLine, *, tolerance: float) -> bool:
     a, b = sorted((along(pier.start, d), along(pier.end, d)))
     lo, hi = line.wall_extent
     return lo - tolerance <= a and b <= hi + tolerance
+
+
+def _first_under(
+    piers: Sequence[Pier],
+    lines: Sequence[ResistanceLine],
+    direction: Direction,
+    tolerance: float,
+) -> list[ResistanceLine | None]:
+    """Per pier, the first of ``lines`` it :func:`stands_on`, or None (all at once).
+
+    The same float comparisons as :func:`stands_on`, on arrays: piers by lines.
+    """
+    if not piers or not lines:
+        return [None] * len(piers)
+    k, j = (1, 0) if direction is Direction.X else (0, 1)
+    ends = segments(map(_ENDS, piers), len(piers))
+    across = (ends[:, 0, k] + ends[:, 1, k]) / 2.0  # perpendicular(pier.midpoint)
+    a = np.minimum(ends[:, 0, j], ends[:, 1, j])  # sorted along-line ends
+    b = np.maximum(ends[:, 0, j], ends[:, 1, j])
+    offset = np.array([ln.offset for ln in lines], dtype=np.float64)
+    extent = points([ln.wall_extent for ln in lines], len(lines))
+    stands = (
+        ~(np.abs(across[:, None] - offset[None, :]) > tolerance)
+        & (extent[None, :, 0] - tolerance <= a[:, None])
+        & (b[:, None] <= extent[None, :, 1] + tolerance)
+    )
+    first = np.argmax(stands, axis=1).tolist()
+    found = stands.any(axis=1).tolist()
+    return [lines[i] if hit else None for i, hit in zip(first, found, strict=True)]
+
+
+def split_transfers(
+    upper_piers: Sequence[Pier],
+    upper_pier_forces: Mapping[PierId, float],
+    lower_lines: Sequence[ResistanceLine],
+    *,
+    level_below: str,
+    direction: Direction,
+    tolerance: float,
+) -> tuple[tuple[PointLoad, ...], tuple[Condition, ...], tuple[PointLoad, ...]]:
+    """:func:`transfer_point_loads`, plus the loads of the piers that do stack.
+
+    Common practice: a stacking pier's shear goes straight into the first line below
+    that it stands on (:func:`stands_on`), as a point load with that one share.
+
+    Returns:
+        The non-stacking point loads and their conditions, as
+        :func:`transfer_point_loads`; then one load per other upper pier of
+        ``direction`` with a force in ``upper_pier_forces`` that stands on a line
+        (``shares`` that line and the whole force), in upper pier order.
+
+    Raises:
+        AllocationError: A non-stacking pier in a line has no force given.
+    """
+    lines = [
+        ln
+        for ln in lower_lines
+        if ln.direction is direction and ln.level == level_below
+    ]
+    mine = [p for p in upper_piers if p.direction is direction]
+    under = _first_under(mine, lines, direction, tolerance)
+    loads, conditions = [], []
+    for p, line in zip(mine, under, strict=True):
+        if not p.line or line is not None:
+            continue
+        if p.id not in upper_pier_forces:
+            msg = f"pier {p.id} (line {p.line}): no force given for the transfer below"
+            raise AllocationError(msg)
+        force = float(upper_pier_forces[p.id])
+        loads.append(
+            PointLoad(
+                level=level_below,
+                direction=direction,
+                source_pier=p.id,
+                location=p.midpoint,
+                force=force,
+                shares=(),
+            )
+        )
+        conditions.append(_non_stacking(p, force, level_below))
+    moved = {pl.source_pier for pl in loads}
+    stacking = []
+    for p, line in zip(mine, under, strict=True):
+        if line is None or p.id not in upper_pier_forces or p.id in moved:
+            continue
+        force = upper_pier_forces[p.id]
+        stacking.append(
+            _point_load(
+                level=level_below,
+                direction=direction,
+                source_pier=p.id,
+                location=p.midpoint,
+                force=force,
+                shares=((line.id, force),),
+            )
+        )
+    return tuple(loads), tuple(conditions), tuple(stacking)
 
 
 def transfer_point_loads(
@@ -77,33 +182,15 @@ def transfer_point_loads(
     Raises:
         AllocationError: A pier in a line has no force in ``upper_pier_forces``.
     """
-    lines = [
-        ln
-        for ln in lower_lines
-        if ln.direction is direction and ln.level == level_below
-    ]
-    loads, conditions = [], []
-    for p in upper_piers:
-        if p.direction is not direction or not p.line:
-            continue
-        if any(stands_on(p, ln, tolerance=tolerance) for ln in lines):
-            continue
-        if p.id not in upper_pier_forces:
-            msg = f"pier {p.id} (line {p.line}): no force given for the transfer below"
-            raise AllocationError(msg)
-        force = float(upper_pier_forces[p.id])
-        loads.append(
-            PointLoad(
-                level=level_below,
-                direction=direction,
-                source_pier=p.id,
-                location=p.midpoint,
-                force=force,
-                shares=(),
-            )
-        )
-        conditions.append(_non_stacking(p, force, level_below))
-    return tuple(loads), tuple(conditions)
+    loads, conditions, _ = split_transfers(
+        upper_piers,
+        upper_pier_forces,
+        lower_lines,
+        level_below=level_below,
+        direction=direction,
+        tolerance=tolerance,
+    )
+    return loads, conditions
 
 
 def _non_stacking(pier: Pier, force: float, level_below: str) -> Condition:

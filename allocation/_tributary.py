@@ -1,6 +1,6 @@
 """Tributary loading of diaphragm pieces with the level's located masses (private).
 
-Used by :mod:`allocation.flexible`. Local frame as in :mod:`allocation._pieces`
+Used by :mod:`allocation.flexible` and :mod:`allocation._loading`. Local frame as in :mod:`allocation._pieces`
 (u along the lines, v across). A distributed mass item (slab, extra) is spread over
 its polygon uniformly; a point item (a wall's tributary weight) sits at its location,
 and goes straight to a line when the wall is in that line or lies on its chord.
@@ -9,28 +9,32 @@ and goes straight to a line when the wall is in that line or lies on its chord.
 from __future__ import annotations
 
 import logging
-import math
-from collections.abc import Sequence
+from collections.abc import Hashable, Sequence
 from dataclasses import dataclass
 
 import numpy as np
 import shapely
 from shapely.geometry import Point, Polygon
-from shapely.ops import nearest_points, unary_union
+from shapely.ops import nearest_points
 
 from allocation._memo import Memo
-from allocation._pieces import Piece, Support, split_region, to_local, to_plan
+from allocation._pieces import (
+    Piece,
+    Support,
+    split_key,
+    split_region,
+    to_local,
+    to_plan,
+)
 from allocation.lines import along, perpendicular, region_crossings
-from allocation.results import LevelLoad, LineId, MassItem, ResistanceLine
+from allocation.results import LineId, ResistanceLine
 from ifc_bridge.model import Diaphragm, Direction
 
 __all__ = [
     "Slot",
     "host",
-    "load_masses",
     "local_uv",
     "make_slots",
-    "mass_items",
     "on_line",
 ]
 
@@ -42,7 +46,11 @@ _COVER_TOL = 1e-7  # [m] a mass polygon this close around a piece covers it
 
 @dataclass(slots=True, kw_only=True)
 class Slot:
-    """A piece being loaded (mutable accumulator, private)."""
+    """A piece being loaded (mutable accumulator, private).
+
+    ``key`` names the piece's geometry exactly, whatever the level: the
+    ``split_key`` of its region's split and its place in it (None: unknown).
+    """
 
     id: str
     region: Diaphragm
@@ -51,11 +59,15 @@ class Slot:
     weight: float = 0.0
     moment_u: float = 0.0
     moment_v: float = 0.0
+    key: tuple | None = None
 
     def add(self, w: float, u: float, v: float) -> None:
         self.weight += w
         self.moment_u += w * u
         self.moment_v += w * v
+
+
+_PLANS: Memo[tuple[Polygon, ...]] = Memo(256)
 
 
 def make_slots(
@@ -85,41 +97,23 @@ def make_slots(
             if c is not None
         ]
         local = to_local(region.polygon, direction)
-        for n, piece in enumerate(split_region(local, supports, tol), start=1):
+        key = split_key(local, supports, tol)
+        pieces = split_region(local, supports, tol, key=key)
+        plans = _PLANS.get(
+            (key, direction),
+            lambda pieces=pieces: tuple(to_plan(p.local, direction) for p in pieces),
+        )
+        for n, (piece, plan) in enumerate(zip(pieces, plans, strict=True), start=1):
             slots.append(
                 Slot(
                     id=f"{region.id}/{direction.value}{n}",
                     region=region,
                     piece=piece,
-                    plan=to_plan(piece.local, direction),
+                    plan=plan,
+                    key=(key, n),
                 )
             )
     return slots
-
-
-def mass_items(
-    level: LevelLoad, regions: Sequence[Diaphragm]
-) -> tuple[tuple[MassItem, ...], bool]:
-    """The level's located masses, else its weight spread uniformly over the regions.
-
-    Returns:
-        The items, and False when they are plan areas [m²] standing in for a weight
-        that is zero (a given story force on a weightless level: spread by area).
-    """
-    if math.fsum(m.weight for m in level.masses) > 0.0 or not regions:
-        return level.masses, True
-    union = unary_union([r.polygon for r in regions])
-    physical = level.seismic_weight > 0.0
-    logger.info("level %s: no located masses; spread over the diaphragm", level.level)
-    c = union.centroid
-    item = MassItem(
-        source="slab",
-        ref=level.level,
-        weight=level.seismic_weight if physical else float(union.area),
-        location=(c.x, c.y),
-        polygon=union,
-    )
-    return (item,), physical
 
 
 def on_line(u: float, v: float, slots: Sequence[Slot]) -> LineId | None:
@@ -151,7 +145,10 @@ def local_uv(point: tuple[float, float], direction: Direction) -> tuple[float, f
 
 
 def _spread(
-    polygon: Polygon, slots: Sequence[Slot], direction: Direction
+    polygon: Polygon,
+    slots: Sequence[Slot],
+    direction: Direction,
+    slots_key: Hashable | None = None,
 ) -> list[tuple[Slot, float, tuple[float, float]]]:
     """(piece, area of the polygon in it [m²], local centroid) for each piece.
 
@@ -159,9 +156,21 @@ def _spread(
     GEOS round-off on edges shared by the piece and the slab outline. The same
     polygon on the same pieces (a typical floor) is taken from memory.
     """
-    key = (polygon.wkb, direction, tuple(slot.plan.wkb for slot in slots))
-    shares = _SPREADS.get(key, lambda: _shares(polygon, slots, direction))
+    shares = _spread_shares(polygon, slots, direction, slots_key)
     return [(slots[j], area, c) for j, area, c in shares]
+
+
+def _spread_shares(
+    polygon: Polygon,
+    slots: Sequence[Slot],
+    direction: Direction,
+    slots_key: Hashable | None = None,
+) -> tuple[tuple[int, float, tuple[float, float]], ...]:
+    """:func:`_spread` with piece indices; from memory for a typical floor."""
+    if slots_key is None:
+        slots_key = _slots_key(slots)
+    key = (polygon.wkb, direction, slots_key)
+    return _SPREADS.get(key, lambda: _shares(polygon, slots, direction))
 
 
 def _shares(
@@ -186,7 +195,8 @@ def _shares(
 # (piece index or -1, support index or -1, local point u, v [m], off every piece)
 _Place = tuple[int, int, float, float, bool]
 _SPREADS: Memo[tuple[tuple[int, float, tuple[float, float]], ...]] = Memo(256)
-_PLACES: Memo[tuple[_Place, ...]] = Memo(256)
+# _place() of the same points on the same pieces, as arrays (allocation._loading)
+_PLACES: Memo[tuple[np.ndarray, ...]] = Memo(256)
 
 
 def _on_lines(
@@ -252,99 +262,15 @@ def _place(u: np.ndarray, v: np.ndarray, slots: Sequence[Slot]) -> tuple[_Place,
     return tuple(out)
 
 
-def _point_targets(
-    items: Sequence[MassItem],
-    slots: Sequence[Slot],
-    wall_lines: dict[tuple[str, int], LineId],
-    direction: Direction,
-) -> list[tuple[LineId | None, tuple[Slot, float, float] | None]]:
-    """Where each point item goes: (its line, else its piece and local point).
-
-    The points not in a line of their own are placed geometrically; the same
-    points on the same pieces (a typical floor) are placed from memory.
-    """
-    uv = np.array([item.location for item in items], dtype=np.float64).reshape(-1, 2)
-    if direction is not Direction.X:
-        uv = uv[:, ::-1]  # as local_uv: (along, across) = (y, x)
-    lines = [
-        wall_lines.get((item.ref, item.pier_part)) if item.source == "wall" else None
-        for item in items
-    ]
-    spots: list[tuple[Slot, float, float] | None] = [None] * len(items)
-    ask = [k for k, line in enumerate(lines) if not line]
-    if not ask:
-        return list(zip(lines, spots, strict=True))
-    pick = uv[np.array(ask)]
-    key = (_slots_key(slots), pick.tobytes())
-    placed = _PLACES.get(key, lambda: _place(pick[:, 0], pick[:, 1], slots))
-    for n, (k, (j, s, u, v, off)) in enumerate(zip(ask, placed, strict=True)):
-        lines[k] = slots[j].piece.supports[s].line if s >= 0 else None
-        if s < 0 and j >= 0:
-            spots[k] = (slots[j], u, v)
-            if off:
-                pu, pv = pick[n].tolist()
-                logger.debug(
-                    "point (%s, %s) off the diaphragm: placed on %s",
-                    pu,
-                    pv,
-                    slots[j].id,
-                )
-    return list(zip(lines, spots, strict=True))
-
-
-def _slots_key(slots: Sequence[Slot]) -> tuple[tuple[bytes, str], ...]:
+def _slots_key(slots: Sequence[Slot]) -> Hashable:
+    """Exact identity of the pieces' geometry and supports, for the memos."""
+    keys = tuple(slot.key for slot in slots)
+    if None not in keys:
+        return keys
     return tuple(
         (
             slot.piece.local.wkb,
-            repr(tuple((s.v, s.segments) for s in slot.piece.supports)),
+            repr(tuple((s.v, s.segments) for s in slot.piece.supports)),  # rare path
         )
         for slot in slots
     )
-
-
-def load_masses(
-    items: Sequence[MassItem],
-    slots: Sequence[Slot],
-    wall_lines: dict[tuple[str, int], LineId],
-    direction: Direction,
-) -> tuple[dict[LineId, float], float]:
-    """Spread mass items onto the pieces (uniform over polygons; points at location).
-
-    A distributed item is shared by the area of its polygon in each piece
-    (normalised by their sum, so no weight is lost where it overhangs the regions);
-    a point item of a wall in a line of this direction (``wall_lines``) or on a
-    chord goes straight to that line; a point off
-    every piece goes to the nearest piece, at the nearest point of it.
-
-    Returns:
-        Weight sent straight to each line [N], and weight with no region at all [N].
-    """
-    parts = [
-        [] if item.polygon is None else _spread(item.polygon, slots, direction)
-        for item in items
-    ]
-    bases = [math.fsum(area for _, area, _ in p) for p in parts]
-    points = [i for i, base in enumerate(bases) if not base > 0.0]
-    where = dict(
-        zip(
-            points,
-            _point_targets([items[i] for i in points], slots, wall_lines, direction),
-            strict=True,
-        )
-    )
-    direct: dict[LineId, float] = {}
-    lost = 0.0
-    for i, item in enumerate(items):
-        if bases[i] > 0.0:
-            for slot, area, (u, v) in parts[i]:
-                slot.add(item.weight * area / bases[i], u, v)
-            continue
-        line, spot = where[i]
-        if line is not None:
-            direct[line] = direct.get(line, 0.0) + item.weight
-        elif spot is not None:
-            slot, u, v = spot
-            slot.add(item.weight, u, v)
-        else:
-            lost += item.weight
-    return direct, lost

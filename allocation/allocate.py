@@ -5,19 +5,21 @@ Order of work: seismic weights (weights), ELF or given level forces and Fpx
 the flexible allocation (each story's walls take their own level's force plus the shear
 of the walls above, which enters the diaphragm below at the upper walls' locations), the
 rigid allocation of each story (story shear at the centre of mass of the levels at and
-above), the envelope, and the load-path graph.
+above), the envelope, and the load-path graphs (built when first read). The cyclic
+garbage collector is paused meanwhile (``allocation._gc``): the run builds a few hundred
+thousand records and no garbage cycles.
 """
 
 from __future__ import annotations
 
 from collections.abc import Sequence
 
-from allocation._transfers import stands_on
+from allocation._transfers import split_transfers
 from allocation.envelope import envelope, line_envelope
-from allocation.flexible import allocate_flexible, transfer_point_loads
+from allocation.flexible import allocate_flexible
 from allocation.level_forces import compute_level_forces
-from allocation.lines import find_lines
-from allocation.load_path import build_load_path
+from allocation.lines import group_lines
+from allocation.load_path import LoadPathGraphs
 from allocation.parameters import AnalysisOptions, DeadLoads, SeismicParameters
 from allocation.piers import make_piers
 from allocation.results import (
@@ -32,8 +34,9 @@ from allocation.results import (
     RigidResult,
 )
 from allocation.rigid import allocate_rigid_story
-from allocation.stiffness import assign_stiffness
+from allocation.stiffness import stiffness_values
 from allocation.weights import level_weights
+from ifc_bridge.gc_pause import collection_paused
 from ifc_bridge.model import BuildingModel, Direction
 
 __all__ = ["allocate"]
@@ -65,43 +68,71 @@ def _centre_of_mass_above(
     return (x, y)
 
 
-def _stacking_loads(
-    upper: Sequence[Pier],
-    upper_forces: dict[str, float],
-    lower_lines: Sequence[ResistanceLine],
-    *,
-    level_below: str,
-    direction: Direction,
-    tolerance: float,
-) -> tuple[PointLoad, ...]:
-    """Every upper pier's shear as a point load on the diaphragm below.
+def _fill_in(pier: Pier, *, stiffness: float, line: str) -> None:
+    """Set the stiffness and line of a pier made by this allocation, in place.
 
-    Non-stacking piers come from :func:`transfer_point_loads` (with their conditions);
-    piers that stand on a line of the story below deliver straight to that line.
+    The pier is new and not yet handed out, so it is completed where it stands (as a
+    ``__post_init__`` would) rather than copied twice; it is frozen from then on.
     """
-    loads = []
-    for p in upper:
-        if p.direction is not direction or p.id not in upper_forces:
-            continue
-        line = _line_below(p, lower_lines, tolerance)
-        if line is not None:
-            loads.append(
-                PointLoad(
-                    level=level_below,
-                    direction=direction,
-                    source_pier=p.id,
-                    location=p.midpoint,
-                    force=upper_forces[p.id],
-                    shares=((line.id, upper_forces[p.id]),),
-                )
-            )
-    return tuple(loads)
+    object.__setattr__(pier, "stiffness", stiffness)
+    object.__setattr__(pier, "line", line)
 
 
-def _line_below(
-    pier: Pier, lines: Sequence[ResistanceLine], tolerance: float
-) -> ResistanceLine | None:
-    return next((ln for ln in lines if stands_on(pier, ln, tolerance=tolerance)), None)
+def _lines_and_piers(
+    model: BuildingModel,
+    levels: Sequence[LevelLoad],
+    options: AnalysisOptions,
+    conditions: list[Condition],
+) -> tuple[dict[str, list[ResistanceLine]], dict[str, list[Pier]], tuple[Pier, ...]]:
+    """Piers with their stiffness and line, and the lines, per level.
+
+    Returns:
+        Lines per level, piers per level (model order), and every pier in level
+        order; the conditions found are added to ``conditions``.
+    """
+    piers, found = make_piers(model.walls, options)
+    conditions.extend(found)
+    stiffness, found = stiffness_values(piers, options)
+    conditions.extend(found)
+    by_level: dict[str, list[Pier]] = {}
+    for p, k in zip(piers, stiffness, strict=True):
+        _fill_in(p, stiffness=k, line="")
+        by_level.setdefault(p.level, []).append(p)
+    lines_by_level: dict[str, list[ResistanceLine]] = {}
+    piers_by_level: dict[str, list[Pier]] = {}
+    for lv in levels:
+        level_index = model.level(lv.level).index + 1  # 1-based: "Level 2" -> "L2-X-1"
+        own = by_level.get(lv.level, [])
+        lines, assigned, found = group_lines(
+            own,
+            model.diaphragms_of(lv.level),
+            level=lv.level,
+            level_index=level_index,
+            options=options,
+        )
+        for p in own:
+            if p.id in assigned:
+                object.__setattr__(p, "line", assigned[p.id])
+        lines_by_level[lv.level] = list(lines)
+        piers_by_level[lv.level] = own
+        conditions.extend(found)
+    known = {lv.level for lv in levels}
+    for p in piers:
+        if p.level not in known:
+            conditions.append(_orphan(p))
+    ordered = tuple(p for lv in levels for p in piers_by_level[lv.level])
+    return lines_by_level, piers_by_level, ordered
+
+
+def _orphan(p: Pier) -> Condition:
+    return Condition(
+        kind=ConditionKind.WALL_OFF_DIAPHRAGM,
+        level=p.level,
+        direction=p.direction,
+        guids=(p.guid,),
+        detail=f"shear wall {p.guid} ({p.name!r}) supports level {p.level!r}, "
+        "which is not a diaphragm level above the base; it takes no force",
+    )
 
 
 def allocate(
@@ -125,41 +156,23 @@ def allocate(
     Returns:
         The allocation, with engineering conditions for the checks.
     """
+    with collection_paused():
+        return _allocate(model, seismic, loads, options)
+
+
+def _allocate(
+    model: BuildingModel,
+    seismic: SeismicParameters,
+    loads: DeadLoads,
+    options: AnalysisOptions,
+) -> Allocation:
     weights = level_weights(model, loads, options, base_level=seismic.base_level)
     summary, levels = compute_level_forces(weights, seismic)
-    piers, conditions = make_piers(model.walls, options)
-    piers, stiff_conditions = assign_stiffness(piers, options)
-    conditions = list(conditions) + list(stiff_conditions)
-
-    all_lines: list[ResistanceLine] = []
-    piers_by_level: dict[str, list[Pier]] = {}
-    for lv in levels:
-        level_index = model.level(lv.level).index + 1  # 1-based: "Level 2" -> "L2-X-1"
-        own = [p for p in piers if p.level == lv.level]
-        lines, own, found = find_lines(
-            own,
-            model.diaphragms_of(lv.level),
-            level=lv.level,
-            level_index=level_index,
-            options=options,
-        )
-        all_lines.extend(lines)
-        piers_by_level[lv.level] = list(own)
-        conditions.extend(found)
-    known = {lv.level for lv in levels}
-    orphans = [p for p in piers if p.level not in known]
-    piers = tuple(p for lv in levels for p in piers_by_level[lv.level])
-    for p in orphans:
-        conditions.append(
-            Condition(
-                kind=ConditionKind.WALL_OFF_DIAPHRAGM,
-                level=p.level,
-                direction=p.direction,
-                guids=(p.guid,),
-                detail=f"shear wall {p.guid} ({p.name!r}) supports level {p.level!r}, "
-                "which is not a diaphragm level above the base; it takes no force",
-            )
-        )
+    conditions: list[Condition] = []
+    lines_by_level, piers_by_level, piers = _lines_and_piers(
+        model, levels, options, conditions
+    )
+    all_lines = [ln for lv in levels for ln in lines_by_level[lv.level]]
 
     flexible: list[FlexibleResult] = []
     rigid: list[RigidResult] = []
@@ -168,28 +181,19 @@ def allocate(
         upper_level: str | None = None
         for i in range(len(levels) - 1, -1, -1):
             lv = levels[i]
-            lines = [ln for ln in all_lines if ln.level == lv.level]
+            lines = lines_by_level[lv.level]
             own = piers_by_level[lv.level]
             transfers: tuple[PointLoad, ...] = ()
             if upper_result is not None and upper_level is not None:
-                upper = piers_by_level[upper_level]
-                moving, found = transfer_point_loads(
-                    upper,
+                moving, found, stacking = split_transfers(
+                    piers_by_level[upper_level],
                     upper_result.pier_forces,
                     lines,
                     level_below=lv.level,
                     direction=direction,
                     tolerance=options.line_tolerance,
                 )
-                stacking = _stacking_loads(
-                    [p for p in upper if p.id not in {m.source_pier for m in moving}],
-                    upper_result.pier_forces,
-                    lines,
-                    level_below=lv.level,
-                    direction=direction,
-                    tolerance=options.line_tolerance,
-                )
-                transfers = tuple(moving) + stacking
+                transfers = moving + stacking
                 conditions.extend(found)
             result = allocate_flexible(
                 lv,
@@ -230,10 +234,7 @@ def allocate(
             all_lines, flexible, rigid, method=options.diaphragm
         ),
         conditions=tuple(_dedupe(conditions)),
-        graphs={
-            d: build_load_path([f for f in flexible if f.direction is d], piers)
-            for d in (Direction.X, Direction.Y)
-        },
+        graphs=LoadPathGraphs(flexible, piers),
     )
 
 

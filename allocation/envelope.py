@@ -13,7 +13,12 @@ flexible method.
 from __future__ import annotations
 
 from collections.abc import Iterable, Sequence
+from itertools import chain, repeat
 
+import numpy as np
+
+from allocation._columns import flags, floats
+from allocation._records import records
 from allocation.parameters import DiaphragmMethod
 from allocation.results import (
     FlexibleResult,
@@ -41,6 +46,48 @@ def _peaks(items: Iterable[tuple[str, dict[str, float]]]) -> dict[str, _Peak]:
     return out
 
 
+def _matrix(
+    items: Sequence[tuple[str, dict[str, float]]], rows: list[int], width: int
+) -> np.ndarray:
+    """The maps' values of the given items as rows of a float matrix."""
+    values = chain.from_iterable(items[n][1].values() for n in rows)
+    return np.fromiter(values, dtype=np.float64, count=len(rows) * width).reshape(
+        len(rows), width
+    )
+
+
+def _same_keys(
+    items: Sequence[tuple[str, dict[str, float]]],
+) -> list[tuple[tuple[str, ...], list[int]]] | None:
+    """Items grouped by their maps' key sequence, or None when groups share keys."""
+    groups: dict[tuple[str, ...], list[int]] = {}
+    for n, (_, forces) in enumerate(items):
+        groups.setdefault(tuple(forces), []).append(n)
+    keys = [k for k in groups]
+    if sum(len(k) for k in keys) != len({p for k in keys for p in k}):
+        return None
+    return list(groups.items())
+
+
+def _peaks_by_rows(items: Sequence[tuple[str, dict[str, float]]]) -> dict[str, _Peak]:
+    """:func:`_peaks` of maps that come in groups with one key sequence (the rigid
+    cases of a story): each group as a matrix, the first largest row per column."""
+    groups = _same_keys(items)
+    if groups is None:
+        return _peaks(items)
+    out: dict[str, _Peak] = {}
+    for keys, rows in groups:
+        m = np.abs(_matrix(items, rows, len(keys)))
+        if np.isnan(m).any():  # comparisons with NaN: the loop's own rule
+            out.update(_peaks([items[n] for n in rows]))
+            continue
+        best = np.argmax(m, axis=0)
+        peak = m[best, np.arange(len(keys))].tolist()
+        labels = [items[rows[b]][0] for b in best.tolist()]
+        out.update(zip(keys, zip(peak, labels, strict=True), strict=True))
+    return out
+
+
 class _LineSums:
     """Signed sums of pier forces per line, visiting only the lines of given piers."""
 
@@ -61,6 +108,32 @@ class _LineSums:
             lid: sum(forces[p] for p in self.members[lid] if p in forces)
             for lid in sorted(hit, key=self.order.__getitem__)
         }
+
+    def many(
+        self, items: Sequence[tuple[str, dict[PierId, float]]]
+    ) -> list[tuple[str, dict[LineId, float]]]:
+        """``(label, self(forces))`` of each item; maps with one key sequence (the
+        rigid cases of a story) as a matrix, each line's piers added in order."""
+        out: list[tuple[str, dict[LineId, float]] | None] = [None] * len(items)
+        groups: dict[tuple[str, ...], list[int]] = {}
+        for n, (_, forces) in enumerate(items):
+            groups.setdefault(tuple(forces), []).append(n)
+        for keys, rows in groups.items():
+            col = {p: k for k, p in enumerate(keys)}
+            hit = sorted(
+                {lid for p in keys for lid in self.index.get(p, ())},
+                key=self.order.__getitem__,
+            )
+            m = _matrix(items, rows, len(keys))
+            sums = {}
+            for lid in hit:
+                cols = [col[p] for p in self.members[lid] if p in col]
+                # a left-to-right sum, as sum() gives (from 0: only -0.0 differs, and
+                # only the magnitude is used)
+                sums[lid] = np.cumsum(m[:, cols], axis=1)[:, -1].tolist()
+            for r, n in enumerate(rows):
+                out[n] = (items[n][0], {lid: v[r] for lid, v in sums.items()})
+        return out  # type: ignore[return-value]
 
 
 def _govern(
@@ -98,20 +171,38 @@ def envelope(
     Returns:
         ``{pier id: PierEnvelope}`` for every pier in any result, magnitudes [N].
     """
-    flex = _peaks((r.direction.value, r.pier_forces) for r in flexible)
-    rig = _peaks((r.case.label, r.pier_forces) for r in rigid)
-    out: dict[PierId, PierEnvelope] = {}
-    for pier in sorted(flex.keys() | rig.keys()):
-        value, governing, case = _govern(flex.get(pier), rig.get(pier), method)
-        out[pier] = PierEnvelope(
-            pier=pier,
-            flexible=flex.get(pier, (0.0, ""))[0],
-            rigid=rig.get(pier, (0.0, ""))[0],
-            envelope=value,
-            governing_method=governing,
-            governing_case=case,
-        )
-    return out
+    flex = _peaks_by_rows([(r.direction.value, r.pier_forces) for r in flexible])
+    rig = _peaks_by_rows([(r.case.label, r.pier_forces) for r in rigid])
+    piers = sorted(flex.keys() | rig.keys())
+    if not piers:
+        return {}
+    none = (0.0, "")
+    f_value, f_case = zip(*map(flex.get, piers, repeat(none)), strict=True)
+    r_value, r_case = zip(*map(rig.get, piers, repeat(none)), strict=True)
+    fm, rm = floats(f_value, len(piers)), floats(r_value, len(piers))
+    if method is DiaphragmMethod.FLEXIBLE:
+        use_rigid = np.zeros(len(piers), dtype=bool)
+    elif method is DiaphragmMethod.RIGID:
+        use_rigid = np.ones(len(piers), dtype=bool)
+    else:  # _govern, for every pier at once
+        has_f = flags(map(flex.__contains__, piers), len(piers))
+        has_r = flags(map(rig.__contains__, piers), len(piers))
+        use_rigid = (rm > fm) | (~has_f & has_r)
+    cases = np.where(
+        use_rigid, np.array(r_case, dtype=object), np.array(f_case, dtype=object)
+    )
+    built = records(
+        PierEnvelope,
+        pier=piers,
+        flexible=list(f_value),
+        rigid=list(r_value),
+        envelope=np.where(use_rigid, rm, fm).tolist(),
+        governing_method=list(
+            map((Method.FLEXIBLE, Method.RIGID).__getitem__, use_rigid.tolist())
+        ),
+        governing_case=cases.tolist(),
+    )
+    return dict(zip(piers, built, strict=True))
 
 
 def line_envelope(
@@ -140,7 +231,7 @@ def line_envelope(
     flex = _peaks((r.direction.value, r.line_forces) for r in flexible)
     members = {line.id: line.piers for line in lines}
     sums = _LineSums(members)
-    rig = _peaks((r.case.label, sums(r.pier_forces)) for r in rigid)
+    rig = _peaks(sums.many([(r.case.label, r.pier_forces) for r in rigid]))
     out: dict[LineId, dict[str, float]] = {}
     for line in lines:
         value, _, _ = _govern(flex.get(line.id), rig.get(line.id), method)

@@ -23,15 +23,14 @@ import logging
 import math
 from collections.abc import Sequence
 
+from allocation._loading import load_masses, mass_items, total_weight
 from allocation._pieces import Support
 from allocation._transfers import transfer_point_loads
 from allocation._tributary import (
     Slot,
     host,
-    load_masses,
     local_uv,
     make_slots,
-    mass_items,
     on_line,
 )
 from allocation.errors import AllocationError
@@ -200,10 +199,13 @@ def _route_point(
     line_ids: set[LineId],
     direction: Direction,
 ) -> tuple[PointLoad, list[Condition]]:
-    guid = pl.source_pier.split("|", 1)[0]
     if pl.shares:
-        unknown = [lid for lid, _ in pl.shares if lid not in line_ids]
-        total = math.fsum(f for _, f in pl.shares)
+        if len(pl.shares) == 1:  # a stacked wall: fsum of one share is the share
+            unknown = [] if pl.shares[0][0] in line_ids else [pl.shares[0][0]]
+            total = pl.shares[0][1]
+        else:
+            unknown = [lid for lid, _ in pl.shares if lid not in line_ids]
+            total = math.fsum(f for _, f in pl.shares)
         if unknown or not math.isclose(total, pl.force, rel_tol=1e-9, abs_tol=1e-9):
             msg = (
                 f"point load from pier {pl.source_pier}: shares {pl.shares} do not "
@@ -211,6 +213,7 @@ def _route_point(
             )
             raise AllocationError(msg)
         return pl, []
+    guid = pl.source_pier.split("|", 1)[0]
     u, v = local_uv(pl.location, direction)
     line = on_line(u, v, slots)
     if line is not None:
@@ -334,7 +337,7 @@ def allocate_flexible(
             raise AllocationError(msg)
     slots = make_slots(regions, mine, direction, tol)
     items, physical = mass_items(level, regions)
-    W, Fx = math.fsum(i.weight for i in items), float(level.story_force)
+    W, Fx = total_weight(items), float(level.story_force)
     scale = Fx / W if W > 0.0 else 0.0
     walls = {
         (p.guid, p.part): p.line for p in piers if p.line in ids and p.level == name

@@ -22,7 +22,12 @@ from __future__ import annotations
 
 import dataclasses
 from collections.abc import Iterable, Sequence
+from itertools import repeat
+from operator import attrgetter
 
+import numpy as np
+
+from allocation._columns import segments
 from allocation._crossing import (
     Crossing,
     RegionProbe,
@@ -39,6 +44,7 @@ __all__ = [
     "Crossing",
     "along",
     "find_lines",
+    "group_lines",
     "line_crossing",
     "perpendicular",
     "region_crossings",
@@ -55,21 +61,56 @@ def along(point: tuple[float, float], direction: Direction) -> float:
     return float(point[0] if direction is Direction.X else point[1])
 
 
-def _pier_span(pier: Pier, direction: Direction) -> tuple[float, float]:
-    a, b = along(pier.start, direction), along(pier.end, direction)
-    return (min(a, b), max(a, b))
+# A pier as the grouping sees it: (pier, mid-point offset, along-span start and end,
+# length, smaller and larger end-point offsets) [m]; the same numbers, computed once,
+# that perpendicular(), along() and Pier.length give.
+_Placed = tuple[Pier, float, float, float, float, float, float]
 
 
-def _cluster(piers: list[Pier], direction: Direction, tol: float) -> list[list[Pier]]:
-    ordered = sorted(piers, key=lambda p: (perpendicular(p.midpoint, direction), p.id))
-    groups: list[list[Pier]] = []
+_ENDS = attrgetter("start", "end")
+
+
+def _placed(piers: Sequence[Pier], direction: Direction) -> list[_Placed]:
+    """Each pier as the grouping sees it, worked out on arrays (the same floats)."""
+    if not piers:
+        return []
+    ends = segments(map(_ENDS, piers), len(piers))
+    s0, s1, e0, e1 = ends[:, 0, 0], ends[:, 0, 1], ends[:, 1, 0], ends[:, 1, 1]
+    dx, dy = e0 - s0, e1 - s1
+    if direction is Direction.X:  # along x, across y
+        a, b, u, w, off = s0, e0, s1, e1, (s1 + e1) / 2.0
+    else:
+        a, b, u, w, off = s1, e1, s0, e0, (s0 + e0) / 2.0
+    # min() and max() of two, as the builtins choose between equal values
+    lo, hi = np.where(b < a, b, a), np.where(b > a, b, a)
+    off_lo, off_hi = np.where(w < u, w, u), np.where(w > u, w, u)
+    length = map(
+        float.__pow__, (dx * dx + dy * dy).tolist(), repeat(0.5)
+    )  # Pier.length
+    return list(
+        zip(
+            piers,
+            off.tolist(),
+            lo.tolist(),
+            hi.tolist(),
+            length,
+            off_lo.tolist(),
+            off_hi.tolist(),
+            strict=True,
+        )
+    )
+
+
+def _cluster(piers: list[_Placed], tol: float) -> list[list[_Placed]]:
+    ordered = sorted(piers, key=lambda q: (q[1], q[0].id))
+    groups: list[list[_Placed]] = []
     last = None
-    for p in ordered:
-        off = perpendicular(p.midpoint, direction)
+    for q in ordered:
+        off = q[1]
         if groups and last is not None and off - last <= tol:
-            groups[-1].append(p)
+            groups[-1].append(q)
         else:
-            groups.append([p])
+            groups.append([q])
         last = off
     return groups
 
@@ -85,7 +126,7 @@ def _covered(
 
 
 def _make_line(
-    group: list[Pier],
+    group: list[_Placed],
     regions: Sequence[RegionProbe],
     *,
     line_id: str,
@@ -93,24 +134,31 @@ def _make_line(
     direction: Direction,
     tolerance: float,
 ) -> ResistanceLine:
-    group = sorted(group, key=lambda p: (_pier_span(p, direction), p.id))
-    wall_length = float(sum(p.length for p in group))
-    offset = sum(p.length * perpendicular(p.midpoint, direction) for p in group)
-    spans = [_pier_span(p, direction) for p in group]
-    line = ResistanceLine(
-        id=line_id,
-        level=level,
-        direction=direction,
-        offset=float(offset / wall_length),
-        piers=tuple(p.id for p in group),
-        wall_extent=(min(a for a, _ in spans), max(b for _, b in spans)),
-        wall_length=wall_length,
-        offset_range=(
-            min(perpendicular(c, direction) for p in group for c in (p.start, p.end)),
-            max(perpendicular(c, direction) for p in group for c in (p.start, p.end)),
-        ),
-    )
-    merged = merge_intervals(spans)
+    group = sorted(group, key=lambda q: ((q[2], q[3]), q[0].id))
+    length, moment = 0, 0  # sum() of lengths and of length x offset, in order
+    lo, hi, off_lo, off_hi = group[0][2], group[0][3], group[0][5], group[0][6]
+    for q in group:
+        length += q[4]
+        moment += q[4] * q[1]
+        # min() / max() over the group: the first of equal values stays
+        lo, hi = (q[2] if q[2] < lo else lo), (q[3] if q[3] > hi else hi)
+        off_lo, off_hi = (
+            (q[5] if q[5] < off_lo else off_lo),
+            (q[6] if q[6] > off_hi else off_hi),
+        )
+    wall_length = float(length)
+    fields = {
+        "id": line_id,
+        "level": level,
+        "direction": direction,
+        "offset": float(moment / wall_length),
+        "piers": tuple(q[0].id for q in group),
+        "wall_extent": (lo, hi),
+        "wall_length": wall_length,
+        "offset_range": (off_lo, off_hi),
+    }
+    line = ResistanceLine(**fields)
+    merged = merge_intervals([(q[2], q[3]) for q in group])
     crossings, collector = [], 0.0
     for region in regions:
         c = crossing_on(line, region, tolerance)
@@ -118,9 +166,55 @@ def _make_line(
             continue
         crossings.append((region.diaphragm.id, c.length))
         collector += max(0.0, c.length - _covered(merged, c.segments))
-    return dataclasses.replace(
-        line, crossings=tuple(crossings), collector_length=float(collector)
+    return ResistanceLine(
+        **fields, crossings=tuple(crossings), collector_length=float(collector)
     )
+
+
+def group_lines(
+    piers: Sequence[Pier],
+    diaphragms: Sequence[Diaphragm],
+    *,
+    level: str,
+    level_index: int,
+    options: AnalysisOptions,
+) -> tuple[tuple[ResistanceLine, ...], dict[str, str], tuple[Condition, ...]]:
+    """:func:`find_lines`, giving each grouped pier's line id instead of new piers.
+
+    Returns:
+        The lines, ``{pier id: line id}`` for the piers grouped, and the conditions.
+    """
+    regions = [d for d in diaphragms if d.level == level]
+    slabs = tuple(sorted({g for d in regions for g in d.slab_guids}))
+    probes = [RegionProbe(d) for d in regions]
+    tol = options.line_tolerance
+    lines: list[ResistanceLine] = []
+    assigned: dict[str, str] = {}
+    conditions: list[Condition] = []
+    for direction in (Direction.X, Direction.Y):
+        mine = _placed(
+            [p for p in piers if p.level == level and p.direction is direction],
+            direction,
+        )
+        groups = _cluster(mine, tol)
+        if not groups:
+            conditions.append(_no_line(level, direction, slabs))
+        for n, group in enumerate(groups, start=1):
+            line_id = f"L{level_index}-{direction.value}-{n}"
+            line = _make_line(
+                group,
+                probes,
+                line_id=line_id,
+                level=level,
+                direction=direction,
+                tolerance=tol,
+            )
+            lines.append(line)
+            for q in group:
+                assigned[q[0].id] = line_id
+            if not line.crossings:
+                conditions.append(_off_diaphragm(line, [q[0] for q in group]))
+    return tuple(lines), assigned, tuple(conditions)
 
 
 def find_lines(
@@ -151,34 +245,11 @@ def find_lines(
         direction with no line (``NO_LINE``) and a line that cuts no diaphragm region
         of the level (``WALL_OFF_DIAPHRAGM``).
     """
-    regions = [d for d in diaphragms if d.level == level]
-    slabs = tuple(sorted({g for d in regions for g in d.slab_guids}))
-    probes = [RegionProbe(d) for d in regions]
-    tol = options.line_tolerance
-    lines: list[ResistanceLine] = []
-    assigned: dict[str, str] = {}
-    conditions: list[Condition] = []
-    for direction in (Direction.X, Direction.Y):
-        mine = [p for p in piers if p.level == level and p.direction is direction]
-        groups = _cluster(mine, direction, tol)
-        if not groups:
-            conditions.append(_no_line(level, direction, slabs))
-        for n, group in enumerate(groups, start=1):
-            line_id = f"L{level_index}-{direction.value}-{n}"
-            line = _make_line(
-                group,
-                probes,
-                line_id=line_id,
-                level=level,
-                direction=direction,
-                tolerance=tol,
-            )
-            lines.append(line)
-            assigned.update({p.id: line.id for p in group})
-            if not line.crossings:
-                conditions.append(_off_diaphragm(line, group))
+    lines, assigned, conditions = group_lines(
+        piers, diaphragms, level=level, level_index=level_index, options=options
+    )
     out = tuple(_with_line(p, assigned[p.id]) if p.id in assigned else p for p in piers)
-    return tuple(lines), out, tuple(conditions)
+    return lines, out, conditions
 
 
 _PIER_FIELDS = tuple(

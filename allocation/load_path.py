@@ -19,15 +19,24 @@ the source carries none). Forces are positive in the +direction.
 
 from __future__ import annotations
 
-from collections.abc import Sequence
+from collections.abc import Iterator, Mapping, Sequence
 from dataclasses import dataclass
-
-import networkx as nx
+from typing import TYPE_CHECKING
 
 from allocation.errors import AllocationError
 from allocation.results import FlexibleResult, Pier, PierId
+from ifc_bridge.model import Direction
 
-__all__ = ["Contribution", "build_load_path", "explain_pier", "level_totals"]
+if TYPE_CHECKING:
+    import networkx as nx
+
+__all__ = [
+    "Contribution",
+    "LoadPathGraphs",
+    "build_load_path",
+    "explain_pier",
+    "level_totals",
+]
 
 _TINY = 1e-9  # [-] relative force below which a direct line mass is round-off
 
@@ -116,6 +125,8 @@ def build_load_path(
     Raises:
         AllocationError: Results of two directions, or a pier not in ``piers``.
     """
+    import networkx as nx
+
     directions = {r.direction for r in flexible_results}
     if len(directions) > 1:
         msg = (
@@ -136,6 +147,50 @@ def build_load_path(
     return g
 
 
+class LoadPathGraphs(Mapping[Direction, "nx.DiGraph"]):
+    """:func:`build_load_path` of each direction, built when first asked for.
+
+    Common practice (DESIGN.md item 10), as :func:`build_load_path`. The graphs
+    explain the forces (the report's load-path column); nothing in the allocation
+    or the checks reads them, so a run that does not ask never builds them.
+
+    Args:
+        flexible_results: Flexible results of both directions.
+        piers: The piers (with ``line`` set) the results name.
+    """
+
+    __slots__ = ("_built", "_flexible", "_piers")
+
+    def __init__(
+        self, flexible_results: Sequence[FlexibleResult], piers: Sequence[Pier]
+    ) -> None:
+        self._flexible = tuple(flexible_results)
+        self._piers = tuple(piers)
+        self._built: dict[Direction, nx.DiGraph] = {}
+
+    def __getitem__(self, direction: Direction) -> nx.DiGraph:
+        try:
+            d = Direction(direction)
+        except ValueError:
+            raise KeyError(direction) from None
+        graph = self._built.get(d)
+        if graph is None:
+            graph = self._built[d] = build_load_path(
+                [f for f in self._flexible if f.direction is d], self._piers
+            )
+        return graph
+
+    def __iter__(self) -> Iterator[Direction]:
+        return iter((Direction.X, Direction.Y))
+
+    def __len__(self) -> int:
+        return 2
+
+    def __repr__(self) -> str:
+        built = ", ".join(d.value for d in self._built) or "none"
+        return f"LoadPathGraphs(X, Y; built: {built})"
+
+
 def explain_pier(graph: nx.DiGraph, pier_id: PierId) -> list[Contribution]:
     """Trace a pier's force to the pieces and line masses it came from, all levels.
 
@@ -153,6 +208,8 @@ def explain_pier(graph: nx.DiGraph, pier_id: PierId) -> list[Contribution]:
     Raises:
         AllocationError: The pier is not in the graph.
     """
+    import networkx as nx
+
     target = f"pier:{pier_id}"
     if target not in graph:
         msg = f"pier {pier_id} is not in the load-path graph"
@@ -199,6 +256,8 @@ def level_totals(graph: nx.DiGraph) -> dict[PierId, dict[str, float]]:
     Returns:
         Pier id -> level name -> force [N]; each pier's values add up to its force.
     """
+    import networkx as nx
+
     comp: dict[str, dict[str, float]] = {}
     out: dict[PierId, dict[str, float]] = {}
     for n in nx.topological_sort(graph):

@@ -15,7 +15,13 @@ from __future__ import annotations
 import logging
 import math
 from collections.abc import Sequence
+from itertools import repeat
+from operator import attrgetter
 
+import numpy as np
+
+from allocation._columns import floats, points, segments
+from allocation._records import maker, records
 from allocation.parameters import AnalysisOptions
 from allocation.results import Condition, ConditionKind, Pier
 from ifc_bridge.model import Direction, WallSegment
@@ -23,6 +29,16 @@ from ifc_bridge.model import Direction, WallSegment
 __all__ = ["MIN_PIER_LENGTH", "make_piers", "pier_id", "wall_direction"]
 
 logger = logging.getLogger(__name__)
+
+_pier = maker(Pier)  # Pier(...), faster for the many piers
+_ENDS, _HEIGHTS = (
+    attrgetter("start", "end"),
+    attrgetter("base_elevation", "top_elevation"),
+)
+_GUID, _LEVEL, _PART, _NAME, _STOREY, _THICKNESS, _ASSEMBLY = (
+    attrgetter(n)
+    for n in ("guid", "level", "part", "name", "storey", "thickness", "assembly")
+)
 
 MIN_PIER_LENGTH = 0.05
 """Shortest full-height piece counted as a pier [m]; shorter slivers are wall ends that
@@ -57,6 +73,8 @@ def wall_direction(angle: float, tolerance: float) -> Direction | None:
 def _solid_intervals(wall: WallSegment) -> list[tuple[float, float]]:
     """Full-height intervals along the centreline, from ``start`` [m]."""
     length = wall.length
+    if not wall.openings:  # what the general case gives without cuts
+        return [(0.0, length)] if length >= MIN_PIER_LENGTH else []
     cuts = sorted(
         (max(0.0, o.start), min(length, o.end))
         for o in wall.openings
@@ -76,33 +94,90 @@ def _solid_intervals(wall: WallSegment) -> list[tuple[float, float]]:
     return [(a, b) for a, b in solid if b - a >= MIN_PIER_LENGTH]
 
 
-def _point_at(wall: WallSegment, s: float) -> tuple[float, float]:
-    t = s / wall.length
-    return (
-        wall.start[0] + t * (wall.end[0] - wall.start[0]),
-        wall.start[1] + t * (wall.end[1] - wall.start[1]),
-    )
-
-
 def _wall_piers(wall: WallSegment, direction: Direction | None) -> list[Pier]:
-    return [
-        Pier(
-            id=pier_id(wall.guid, wall.level, wall.part, n),
-            guid=wall.guid,
-            name=wall.name,
-            pier=n,
-            part=wall.part,
-            level=wall.level,
-            storey=wall.storey,
-            direction=direction,
-            start=_point_at(wall, a),
-            end=_point_at(wall, b),
-            height=wall.height,
-            thickness=wall.thickness,
-            assembly=wall.assembly,
+    """The wall's piers; a point at ``s`` along it is ``start + (s / length)·(end - start)``."""
+    (x0, y0), (x1, y1) = wall.start, wall.end
+    dx, dy, length = x1 - x0, y1 - y0, wall.length
+    guid, level, part = wall.guid, wall.level, wall.part
+    out = []
+    for n, (a, b) in enumerate(_solid_intervals(wall)):
+        ta, tb = a / length, b / length
+        out.append(
+            _pier(
+                id=f"{guid}|{level}|{part}|{n}",  # pier_id()
+                guid=guid,
+                name=wall.name,
+                pier=n,
+                part=part,
+                level=level,
+                storey=wall.storey,
+                direction=direction,
+                start=(x0 + ta * dx, y0 + ta * dy),
+                end=(x0 + tb * dx, y0 + tb * dy),
+                height=wall.height,
+                thickness=wall.thickness,
+                assembly=wall.assembly,
+            )
         )
-        for n, (a, b) in enumerate(_solid_intervals(wall))
+    return out
+
+
+def _directions(
+    walls: Sequence[WallSegment], tolerance: float
+) -> list[Direction | None]:
+    """:func:`wall_direction` of each wall's ``angle``, on arrays (the same floats)."""
+    ends = segments(map(_ENDS, walls), len(walls))
+    dx, dy = (ends[:, 1] - ends[:, 0]).T
+    pi = math.pi
+    angle = map(float.__mod__, map(math.atan2, dy.tolist(), dx.tolist()), repeat(pi))
+    a = floats(map(float.__mod__, angle, repeat(pi)), len(walls))  # wall_direction's a
+    across = np.where((pi - a) < a, pi - a, a) <= tolerance  # min(a, pi - a)
+    along = np.abs(a - pi / 2.0) <= tolerance
+    X, Y = Direction.X, Direction.Y
+    return [
+        X if x else (Y if y else None)
+        for x, y in zip(across.tolist(), along.tolist(), strict=True)
     ]
+
+
+def _plain_piers(
+    walls: Sequence[WallSegment], directions: Sequence
+) -> list[Pier | None]:
+    """The one pier of each wall without openings (None: too short), on arrays.
+
+    As :func:`_wall_piers` gives it: the interval (0, length) when length is at
+    least ``MIN_PIER_LENGTH``, its ends at ``start + (s / length)·(end - start)``.
+    """
+    ends = segments(map(_ENDS, walls), len(walls))
+    d = ends[:, 1] - ends[:, 0]
+    length = floats(map(math.hypot, d[:, 0].tolist(), d[:, 1].tolist()), len(walls))
+    ok = length >= MIN_PIER_LENGTH
+    start = ends[:, 0] + (0.0 / length)[:, None] * d
+    end = ends[:, 0] + (length / length)[:, None] * d
+    rows = np.flatnonzero(ok).tolist()
+    chosen = [walls[i] for i in rows]
+    guid, level, part = (list(map(g, chosen)) for g in (_GUID, _LEVEL, _PART))
+    zs = points(map(_HEIGHTS, chosen), len(chosen))
+    made = records(
+        Pier,
+        id=list(map("{}|{}|{}|0".format, guid, level, part)),  # pier_id(..., 0)
+        guid=guid,
+        name=list(map(_NAME, chosen)),
+        pier=[0] * len(rows),
+        part=part,
+        level=level,
+        storey=list(map(_STOREY, chosen)),
+        direction=[directions[i] for i in rows],
+        start=list(map(tuple, start[rows].tolist())),
+        end=list(map(tuple, end[rows].tolist())),
+        height=(zs[:, 1] - zs[:, 0]).tolist(),  # WallSegment.height
+        thickness=list(map(_THICKNESS, chosen)),
+        assembly=list(map(_ASSEMBLY, chosen)),
+    )
+    out: list[Pier | None] = [None] * len(walls)
+    for i, p in zip(rows, made, strict=True):
+        out[i] = p
+    return out
 
 
 def make_piers(
@@ -123,15 +198,30 @@ def make_piers(
         skewed wall (``SKEWED_WALL``; its piers have direction None and are not
         allocated) and a wall whose openings leave no pier (``NO_PIER``).
     """
+    shear = [w for w in walls if w.is_shear_wall and w.level]
+    if not shear:
+        return (), ()
+    directions = _directions(shear, options.angle_tolerance)
+    plain_rows = [i for i, w in enumerate(shear) if not w.openings]
+    plain = dict(
+        zip(
+            plain_rows,
+            _plain_piers(
+                [shear[i] for i in plain_rows], [directions[i] for i in plain_rows]
+            ),
+            strict=True,
+        )
+    )
     piers: list[Pier] = []
     conditions: list[Condition] = []
-    for wall in walls:
-        if not wall.is_shear_wall or not wall.level:
-            continue
-        direction = wall_direction(wall.angle, options.angle_tolerance)
+    for i, (wall, direction) in enumerate(zip(shear, directions, strict=True)):
         if direction is None:
             conditions.append(_skewed(wall, options.angle_tolerance))
-        found = _wall_piers(wall, direction)
+        if i in plain:
+            one = plain[i]
+            found = [] if one is None else [one]
+        else:
+            found = _wall_piers(wall, direction)
         if not found:
             conditions.append(_no_pier(wall, direction))
         piers.extend(found)

@@ -12,6 +12,7 @@ Ids:
 
 from __future__ import annotations
 
+from collections.abc import Mapping
 from dataclasses import dataclass, field
 from enum import StrEnum
 
@@ -462,7 +463,8 @@ class Allocation:
         envelope: Envelope per pier.
         line_envelope: ``{line id: {"flexible": N, "rigid": N, "envelope": N}}``.
         conditions: All engineering conditions, for findings.
-        graphs: Load-path graph per direction (networkx DiGraph).
+        graphs: Load-path graph per direction (networkx DiGraph), built when first
+            read (``allocation.load_path.LoadPathGraphs``).
     """
 
     seismic: SeismicSummary
@@ -474,4 +476,4 @@ class Allocation:
     envelope: dict[PierId, PierEnvelope] = field(default_factory=dict)
     line_envelope: dict[LineId, dict[str, float]] = field(default_factory=dict)
     conditions: tuple[Condition, ...] = ()
-    graphs: dict[Direction, object] = field(default_factory=dict)
+    graphs: Mapping[Direction, object] = field(default_factory=dict)

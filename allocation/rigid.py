@@ -23,13 +23,16 @@ extremes of the diaphragm (ASCE 7-16 Table 12.3-1), always with Ax = 1.
 
 from __future__ import annotations
 
-import math
 from collections.abc import Sequence
 from dataclasses import dataclass
+from itertools import repeat
+from operator import attrgetter, is_
 
 import numpy as np
 from numpy.typing import NDArray
 
+from allocation._columns import flags, floats, segments
+from allocation._rigid_inputs import validate as _validate
 from allocation.asce7_16 import s12_8_torsion
 from allocation.errors import ParameterError
 from allocation.results import Condition, ConditionKind, LoadCase, Pier, RigidResult
@@ -44,6 +47,12 @@ ratio is unbounded and reported as this; Type 1b (> 1.4) and Ax = 3 (ratio >= 2.
 are reached far below it."""
 
 _IRREGULAR_RATIO = 1.2  # ASCE 7-16 Table 12.3-1, Type 1a
+_STIFFNESS, _DIRECTION, _ID = (
+    attrgetter("stiffness"),
+    attrgetter("direction"),
+    attrgetter("id"),
+)
+_ENDS = attrgetter("start", "end")
 _REL_TOL = 1e-12  # zero test for J and arms, relative to the plan scale
 
 
@@ -52,6 +61,7 @@ class _Rigidity:
     """Stiffness layout of one story: arrays over its X and Y piers."""
 
     piers: tuple[Pier, ...]
+    ids: tuple[str, ...]  # their ids
     kx: NDArray[np.float64]  # stiffness of X piers, 0 for Y piers
     ky: NDArray[np.float64]
     x: NDArray[np.float64]  # mid-points [m]
@@ -60,15 +70,16 @@ class _Rigidity:
     ycr: float
     J: float  # torsional stiffness about the CR [stiffness·m²]
     scale: float  # plan length scale for zero tests [m]
+    totals: tuple[float, float]  # Σkx, Σky
+    torsionally_unstable: bool  # J is zero, relative to Σk and the plan scale
 
     def total(self, direction: Direction) -> float:
-        return float((self.kx if direction is Direction.X else self.ky).sum())
+        return self.totals[0 if direction is Direction.X else 1]
 
     @property
-    def torsionally_unstable(self) -> bool:
-        k_all = float(self.kx.sum() + self.ky.sum())
-        tolerance = _REL_TOL * k_all * self.scale**2
-        return tolerance >= self.J
+    def guids(self) -> tuple[str, ...]:
+        """GlobalIds of the story's walls, sorted (for conditions)."""
+        return tuple(sorted({p.guid for p in self.piers}))
 
 
 def rigid_cases(direction: Direction) -> tuple[LoadCase, ...]:
@@ -90,46 +101,6 @@ def rigid_cases(direction: Direction) -> tuple[LoadCase, ...]:
     )
 
 
-def _require_finite(msg_name: str, *values: float) -> None:
-    if not all(math.isfinite(v) for v in values):
-        msg = f"rigid allocation: {msg_name} = {values} must be finite"
-        raise ParameterError(msg)
-
-
-def _validate(
-    story_shear: float,
-    center_of_mass: tuple[float, float],
-    plan_extent: tuple[float, float, float, float],
-    case: LoadCase,
-    accidental_eccentricity: float,
-    Ax: float,
-) -> None:
-    _require_finite("story_shear", story_shear)
-    _require_finite("center_of_mass", *center_of_mass)
-    _require_finite("plan_extent", *plan_extent)
-    xmin, ymin, xmax, ymax = plan_extent
-    checks = (
-        (story_shear >= 0, f"story_shear = {story_shear} N must be >= 0"),
-        (
-            xmax >= xmin and ymax >= ymin,
-            f"plan_extent = {plan_extent} must be (xmin, ymin, xmax, ymax)",
-        ),
-        (
-            case.sign in (1, -1) and case.ecc_sign in (1, -1),
-            f"load case {case} needs sign and ecc_sign of +1 or -1",
-        ),
-        (
-            0 <= accidental_eccentricity < 0.5,
-            f"accidental_eccentricity = {accidental_eccentricity} must be in [0, 0.5)",
-        ),
-        (math.isfinite(Ax) and 1.0 <= Ax <= 3.0, f"Ax = {Ax} must be in [1, 3]"),
-    )
-    for ok, text in checks:
-        if not ok:
-            msg = f"rigid allocation: {text}"
-            raise ParameterError(msg)
-
-
 def _rigidity(
     piers: Sequence[Pier],
     *,
@@ -139,24 +110,40 @@ def _rigidity(
 ) -> _Rigidity:
     """CR and J of the level's X and Y piers (no piers in a direction: CR at CM)."""
     active = tuple(p for p in piers if p.level == level and p.direction is not None)
-    for p in active:
-        if not (math.isfinite(p.stiffness) and p.stiffness >= 0):
-            msg = f"rigid allocation: pier {p.id}: stiffness {p.stiffness} must be >= 0"
-            raise ParameterError(msg)
-    k = np.array([p.stiffness for p in active], dtype=np.float64)
-    is_x = np.array([p.direction is Direction.X for p in active], dtype=bool)
-    x = np.array([p.midpoint[0] for p in active], dtype=np.float64)
-    y = np.array([p.midpoint[1] for p in active], dtype=np.float64)
+    k = floats(map(_STIFFNESS, active), len(active))
+    bad = ~(np.isfinite(k) & (k >= 0))
+    if bad.any():
+        p = active[int(np.flatnonzero(bad)[0])]
+        msg = f"rigid allocation: pier {p.id}: stiffness {p.stiffness} must be >= 0"
+        raise ParameterError(msg)
+    is_x = flags(map(is_, map(_DIRECTION, active), repeat(Direction.X)), len(active))
+    ends = segments(map(_ENDS, active), len(active))
+    x = (ends[:, 0, 0] + ends[:, 1, 0]) / 2.0  # Pier.midpoint
+    y = (ends[:, 0, 1] + ends[:, 1, 1]) / 2.0
     kx, ky = np.where(is_x, k, 0.0), np.where(is_x, 0.0, k)
-    xcr = float(ky @ x / ky.sum()) if ky.sum() > 0 else float(center_of_mass[0])
-    ycr = float(kx @ y / kx.sum()) if kx.sum() > 0 else float(center_of_mass[1])
+    kx_sum, ky_sum = kx.sum(), ky.sum()
+    xcr = float(ky @ x / ky_sum) if ky_sum > 0 else float(center_of_mass[0])
+    ycr = float(kx @ y / kx_sum) if kx_sum > 0 else float(center_of_mass[1])
     J = float(kx @ (y - ycr) ** 2 + ky @ (x - xcr) ** 2)
     xmin, ymin, xmax, ymax = plan_extent
     spread = [xmax - xmin, ymax - ymin, 1e-9]
     if active:
         spread += [float(np.ptp(x)), float(np.ptp(y))]
+    scale = max(spread)
+    k_all = float(kx_sum + ky_sum)
     return _Rigidity(
-        piers=active, kx=kx, ky=ky, x=x, y=y, xcr=xcr, ycr=ycr, J=J, scale=max(spread)
+        piers=active,
+        ids=tuple(map(_ID, active)),
+        kx=kx,
+        ky=ky,
+        x=x,
+        y=y,
+        xcr=xcr,
+        ycr=ycr,
+        J=J,
+        scale=scale,
+        totals=(float(kx_sum), float(ky_sum)),
+        torsionally_unstable=_REL_TOL * k_all * scale**2 >= J,
     )
 
 
@@ -196,7 +183,6 @@ def _theta(
     rig: _Rigidity, *, level: str, d: Direction, T: float, story_shear: float
 ) -> tuple[float, tuple[Condition, ...]]:
     """Rotation θ = T/J, or 0 with the condition that prevents it."""
-    guids = tuple(sorted({p.guid for p in rig.piers}))
     if rig.total(d) == 0:
         detail = (
             f"level {level}: no shear wall resists {d.value}; the rigid analysis "
@@ -207,7 +193,7 @@ def _theta(
                 kind=ConditionKind.NO_LINE,
                 level=level,
                 direction=d,
-                guids=guids,
+                guids=rig.guids,
                 detail=detail,
                 value=float(story_shear),
             ),
@@ -223,7 +209,7 @@ def _theta(
                 kind=ConditionKind.TORSIONAL_INSTABILITY,
                 level=level,
                 direction=d,
-                guids=guids,
+                guids=rig.guids,
                 detail=detail,
                 value=abs(T),
             ),
@@ -312,7 +298,7 @@ def _allocate(
     direct = k_d / k_sum * F if k_sum > 0 else np.zeros_like(k_d)
     theta, conditions = _theta(rig, level=level, d=d, T=T, story_shear=story_shear)
     total = direct + theta * (rig.kx * -(rig.y - rig.ycr) + rig.ky * (rig.x - rig.xcr))
-    ids = [p.id for p in rig.piers]
+    ids = rig.ids
     return RigidResult(
         level=level,
         case=case,

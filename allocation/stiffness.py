@@ -51,6 +51,7 @@ __all__ = [
     "cantilever_pier_stiffness",
     "sdpws_deflection",
     "sdpws_stiffness",
+    "stiffness_values",
 ]
 
 logger = logging.getLogger(__name__)
@@ -205,7 +206,7 @@ def _assembly_stiffness(pier: Pier, props: AssemblyProperties) -> float:
 
 def _assign_level(
     level: str, piers: Sequence[Pier], options: AnalysisOptions
-) -> tuple[list[Pier], Condition | None]:
+) -> tuple[list[float], Condition | None]:
     """Stiffness of one level's piers on one basis, with the fallback condition."""
     props = [options.assembly(p.assembly) for p in piers]
     missing = [_missing_inputs(p, a) for p, a in zip(piers, props, strict=True)]
@@ -214,7 +215,7 @@ def _assign_level(
     ]
     if not lacking:
         out = [
-            replace(p, stiffness=0.0 if m else _assembly_stiffness(p, a))
+            0.0 if m else _assembly_stiffness(p, a)
             for p, a, m in zip(piers, props, missing, strict=True)
         ]
         return out, None
@@ -239,7 +240,30 @@ def _assign_level(
         detail=detail,
         value=float(len(lacking)),
     )
-    return [replace(p, stiffness=float(p.length)) for p in piers], cond
+    return [float(p.length) for p in piers], cond
+
+
+def stiffness_values(
+    piers: Sequence[Pier], options: AnalysisOptions
+) -> tuple[list[float], tuple[Condition, ...]]:
+    """The stiffness :func:`assign_stiffness` gives each pier, without new piers.
+
+    Returns:
+        One stiffness per pier, in the given order [m or N/m], and the conditions.
+    """
+    if options.wall_stiffness is WallStiffness.LENGTH:
+        return [float(p.length) for p in piers], ()
+    by_level: dict[str, list[int]] = {}
+    for i, p in enumerate(piers):
+        by_level.setdefault(p.level, []).append(i)
+    done: dict[int, float] = {}
+    conditions: list[Condition] = []
+    for level, index in by_level.items():
+        values, cond = _assign_level(level, [piers[i] for i in index], options)
+        done.update(zip(index, values, strict=True))
+        if cond is not None:
+            conditions.append(cond)
+    return [done[i] for i in range(len(piers))], tuple(conditions)
 
 
 def assign_stiffness(
@@ -264,16 +288,8 @@ def assign_stiffness(
         The piers in the given order with ``stiffness`` set [m or N/m], and the
         conditions (one per level that fell back to length).
     """
-    if options.wall_stiffness is WallStiffness.LENGTH:
-        return tuple(replace(p, stiffness=float(p.length)) for p in piers), ()
-    by_level: dict[str, list[int]] = {}
-    for i, p in enumerate(piers):
-        by_level.setdefault(p.level, []).append(i)
-    done: dict[int, Pier] = {}
-    conditions: list[Condition] = []
-    for level, index in by_level.items():
-        assigned, cond = _assign_level(level, [piers[i] for i in index], options)
-        done.update(zip(index, assigned, strict=True))
-        if cond is not None:
-            conditions.append(cond)
-    return tuple(done[i] for i in range(len(piers))), tuple(conditions)
+    values, conditions = stiffness_values(piers, options)
+    return (
+        tuple(replace(p, stiffness=k) for p, k in zip(piers, values, strict=True)),
+        conditions,
+    )

@@ -23,8 +23,12 @@ import logging
 import math
 from collections import defaultdict
 from collections.abc import Iterable, Sequence
-from dataclasses import dataclass
+from operator import attrgetter
 
+import numpy as np
+
+from allocation._columns import points
+from allocation._wall_weights import WallShares, wall_shares
 from allocation.errors import ParameterError
 from allocation.parameters import AnalysisOptions, DeadLoads
 from allocation.results import LevelLoad, MassItem, WeightItem
@@ -34,22 +38,10 @@ __all__ = ["level_weights", "wall_elevation_area", "wall_unit_load"]
 
 logger = logging.getLogger(__name__)
 
-WALLS_BELOW = "walls below"
-WALLS_ABOVE = "walls above"
+_WEIGHT, _LOCATION = attrgetter("weight"), attrgetter("location")
 
 # breakdown row: (source, unit load [Pa], quantity [m²], weight [N], guids)
 _Row = tuple[str, float, float, float, Iterable[str]]
-
-
-@dataclass(frozen=True, slots=True, kw_only=True)
-class _WallShare:
-    """Part of one wall segment's weight that lands on one level."""
-
-    wall: WallSegment
-    source: str  # WALLS_BELOW or WALLS_ABOVE
-    area: float  # tributary elevation area [m²]
-    unit_load: float  # [Pa]
-    weight: float  # area × unit_load [N]
 
 
 def wall_elevation_area(wall: WallSegment) -> float:
@@ -65,10 +57,14 @@ def wall_elevation_area(wall: WallSegment) -> float:
         Area [m²].
     """
     length, height = wall.length, wall.height
-    holes = math.fsum(
-        max(min(o.end, length) - max(o.start, 0.0), 0.0)
-        * max(min(o.top, height) - max(o.bottom, 0.0), 0.0)
-        for o in wall.openings
+    holes = (
+        math.fsum(
+            max(min(o.end, length) - max(o.start, 0.0), 0.0)
+            * max(min(o.top, height) - max(o.bottom, 0.0), 0.0)
+            for o in wall.openings
+        )
+        if wall.openings
+        else 0.0
     )
     return float(max(length * height - holes, 0.0))
 
@@ -169,30 +165,6 @@ def _lookup(
     return targets[name]
 
 
-def _wall_shares(
-    model: BuildingModel,
-    loads: DeadLoads,
-    options: AnalysisOptions,
-    targets: dict[str, str | None],
-) -> dict[str, list[_WallShare]]:
-    shares: dict[str, list[_WallShare]] = defaultdict(list)
-    for w in model.walls:
-        area, q = wall_elevation_area(w), wall_unit_load(w, loads, options)
-        if w.level:
-            parts = ((w.storey, WALLS_ABOVE, 0.5), (w.level, WALLS_BELOW, 0.5))
-        else:  # nothing above: a parapet's whole weight to the level it stands on
-            parts = ((w.storey, WALLS_ABOVE, 1.0),)
-        for name, source, fraction in parts:
-            target = _lookup(targets, name, f"wall {w.guid}", model.source)
-            if target is not None:
-                a = fraction * area
-                sh = _WallShare(
-                    wall=w, source=source, area=a, unit_load=q, weight=a * q
-                )
-                shares[target].append(sh)
-    return shares
-
-
 def _extras(
     loads: DeadLoads, model: BuildingModel, diaphragms: Sequence[Level]
 ) -> dict[str, float]:
@@ -260,27 +232,6 @@ def _spread(source: str, d: Diaphragm, weight: float) -> MassItem:
     )
 
 
-def _wall_masses(shares: Sequence[_WallShare]) -> list[MassItem]:
-    """One point item per wall segment (both halves merged when they land here)."""
-    by_segment: dict[tuple[str, int], list[_WallShare]] = {}
-    for s in shares:
-        by_segment.setdefault((s.wall.guid, s.wall.part), []).append(s)
-    out = []
-    for (guid, part), group in by_segment.items():
-        weight = math.fsum(s.weight for s in group)
-        if weight > 0.0:
-            out.append(
-                MassItem(
-                    source="wall",
-                    ref=guid,
-                    weight=float(weight),
-                    location=group[0].wall.midpoint,
-                    pier_part=part,
-                )
-            )
-    return out
-
-
 def _extra_masses(
     model: BuildingModel, level: Level, extra: float, located: Sequence[MassItem]
 ) -> list[MassItem]:
@@ -308,9 +259,11 @@ def _extra_masses(
 
 
 def _centroid(masses: Sequence[MassItem]) -> tuple[float, float]:
-    total = math.fsum(m.weight for m in masses)
-    x = math.fsum(m.weight * m.location[0] for m in masses) / total
-    y = math.fsum(m.weight * m.location[1] for m in masses) / total
+    w = np.array(list(map(_WEIGHT, masses)), dtype=np.float64)
+    xy = points(map(_LOCATION, masses), len(masses))
+    total = math.fsum(w.tolist())  # fsum: exact, whatever the order
+    x = math.fsum((w * xy[:, 0]).tolist()) / total
+    y = math.fsum((w * xy[:, 1]).tolist()) / total
     return (float(x), float(y))
 
 
@@ -321,14 +274,14 @@ def _level_load(
     base: Level,
     loads: DeadLoads,
     targets: dict[str, str | None],
-    shares: Sequence[_WallShare],
+    shares: WallShares | None,
     extra: float,
 ) -> LevelLoad:
     rows, masses = _slab_parts(model, level.name, loads, targets)
-    rows += [(s.source, s.unit_load, s.area, s.weight, (s.wall.guid,)) for s in shares]
-    masses += _wall_masses(shares)
+    if shares is not None:
+        masses += shares.masses()
     masses += _extra_masses(model, level, extra, masses)
-    breakdown = _grouped(rows)
+    breakdown = _grouped(rows) + ([] if shares is None else shares.breakdown())
     if extra > 0.0:
         breakdown.append(
             WeightItem(source="extra", quantity=0.0, unit_load=0.0, weight=extra)
@@ -384,7 +337,13 @@ def level_weights(
     base = _base(model, base_level)
     diaphragms = _diaphragm_levels(model, options, base)
     targets = _targets(model, base, diaphragms)
-    shares = _wall_shares(model, loads, options, targets)
+    shares = wall_shares(
+        model.walls,
+        targets,
+        unit_load=lambda w: wall_unit_load(w, loads, options),
+        area_of=wall_elevation_area,
+        missing=lambda name, w: _lookup(targets, name, f"wall {w.guid}", model.source),
+    )
     extras = _extras(loads, model, diaphragms)
     return tuple(
         _level_load(
@@ -393,7 +352,7 @@ def level_weights(
             base=base,
             loads=loads,
             targets=targets,
-            shares=shares.get(lv.name, ()),
+            shares=shares.get(lv.name),
             extra=extras.get(lv.name, 0.0),
         )
         for lv in diaphragms

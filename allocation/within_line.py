@@ -69,18 +69,24 @@ def distribute_in_line(
         ParameterError: Unknown ``by``, no piers, or a pier without positive weight.
     """
     try:
-        basis = InLineBasis(by)
+        basis = by if isinstance(by, InLineBasis) else InLineBasis(by)
     except ValueError:
         msg = f"within-line basis {by!r} is not one of 'length', 'stiffness'"
         raise ParameterError(msg) from None
     if not piers:
         msg = f"no piers to share a line force of {line_force} N"
         raise ParameterError(msg)
-    weights = [p.length if basis is InLineBasis.LENGTH else p.stiffness for p in piers]
-    for p, w in zip(piers, weights, strict=True):
-        if not (math.isfinite(w) and w > 0.0):
-            msg = f"pier {p.id}: {basis.value} {w} must be > 0 to share a line force"
-            raise ParameterError(msg)
+    if basis is InLineBasis.LENGTH:
+        weights = [p.length for p in piers]
+    else:
+        weights = [p.stiffness for p in piers]
+    if not all(math.isfinite(w) and w > 0.0 for w in weights):
+        for p, w in zip(piers, weights, strict=True):
+            if not (math.isfinite(w) and w > 0.0):
+                msg = (
+                    f"pier {p.id}: {basis.value} {w} must be > 0 to share a line force"
+                )
+                raise ParameterError(msg)
     total = math.fsum(weights)
     forces = {p.id: line_force * w / total for p, w in zip(piers, weights, strict=True)}
     big = piers[max(range(len(piers)), key=weights.__getitem__)].id

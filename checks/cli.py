@@ -6,6 +6,13 @@ Exit codes: 0 ran with no error-severity finding; 1 error-severity findings exis
 
 from __future__ import annotations
 
+import os
+
+# numpy's BLAS threads spin on the second core after each small product, which takes
+# it from shearline's own worker processes; one BLAS thread is all a check needs.
+# Set before numpy is first imported (a value the user set is kept).
+os.environ.setdefault("OPENBLAS_NUM_THREADS", "1")
+
 import argparse
 import sys
 from collections.abc import Sequence

@@ -7,6 +7,7 @@
 
 from __future__ import annotations
 
+import contextlib
 import os
 from pathlib import Path
 
@@ -14,6 +15,10 @@ from checks.errors import OutputError
 from checks.project import DisplayUnits
 
 __all__ = ["annotation_values", "write_all"]
+
+# Fewer piers than this: write the report in this process (a fork costs ~10 ms and
+# the small report takes less).
+_PARALLEL_PIERS = 500
 
 
 def annotation_values(run) -> tuple[dict[str, dict], dict[str, dict]]:
@@ -31,18 +36,28 @@ def annotation_values(run) -> tuple[dict[str, dict], dict[str, dict]]:
     for p in alloc.piers:
         env = alloc.envelope.get(p.id)
         c = checks.get(p.id)
-        entry = walls.setdefault(p.guid, {
-            "FlexibleShear_N": 0.0, "RigidShear_N": 0.0, "EnvelopeShear_N": 0.0,
-            "GoverningCase": "", "Line": p.line, "Level": p.level,
-            "Assembly": p.assembly, "Piers": 0,
-        })
+        entry = walls.setdefault(
+            p.guid,
+            {
+                "FlexibleShear_N": 0.0,
+                "RigidShear_N": 0.0,
+                "EnvelopeShear_N": 0.0,
+                "GoverningCase": "",
+                "Line": p.line,
+                "Level": p.level,
+                "Assembly": p.assembly,
+                "Piers": 0,
+            },
+        )
         entry["Piers"] += 1
         if env is not None:
             entry["FlexibleShear_N"] = max(entry["FlexibleShear_N"], env.flexible)
             entry["RigidShear_N"] = max(entry["RigidShear_N"], env.rigid)
             if env.envelope >= entry["EnvelopeShear_N"]:
                 entry["EnvelopeShear_N"] = env.envelope
-                entry["GoverningCase"] = f"{env.governing_method.value} {env.governing_case}"
+                entry["GoverningCase"] = (
+                    f"{env.governing_method.value} {env.governing_case}"
+                )
         dcr = getattr(c, "dcr", None)
         if dcr is not None and dcr >= entry.get("MaxDCR", -1.0):
             entry["MaxDCR"] = dcr
@@ -60,6 +75,36 @@ def annotation_values(run) -> tuple[dict[str, dict], dict[str, dict]]:
     return walls, storeys
 
 
+def _report_beside(run, path: Path, *, system: DisplayUnits, parallel: bool | None):
+    """Start writing ``report.html`` in a worker process (see :mod:`ifc_bridge.worker`).
+
+    The worker writes a ``.part`` file beside ``path``; :func:`_report_done` renames it
+    once complete, so a failed run never leaves half a report. Without a worker the
+    report is written here when its result is asked for.
+    """
+    from ifc_bridge.worker import can_fork, start_call
+
+    part = path.with_name(path.name + ".part")
+    if parallel is None:
+        parallel = len(run.allocation.piers) >= _PARALLEL_PIERS and can_fork()
+    return part, start_call(
+        "report", _write_report, part, run, system, parallel=parallel
+    )
+
+
+def _write_report(path: Path, run, system: DisplayUnits) -> Path:
+    from checks.report.html_report import write_report
+
+    return write_report(path, run, system=system)
+
+
+def _report_done(pending, part: Path, path: Path) -> Path:
+    """Wait for the report (written here if the worker failed); move it in place."""
+    pending.result()
+    os.replace(part, path)
+    return path
+
+
 def write_all(
     run,
     out: Path,
@@ -68,32 +113,51 @@ def write_all(
     annotate: bool,
     bcf_version: str,
     system: DisplayUnits,
+    parallel: bool | None = None,
 ) -> dict[str, Path]:
     """Write every output into ``out``; returns kind -> path.
+
+    ``report.html``, the largest, is written in a forked worker while this process
+    writes the others, on POSIX with two or more cores and a large enough model
+    (``parallel`` forces or forbids it); the files are the same either way.
 
     Raises:
         OutputError: A file cannot be written.
     """
     from checks.report.csv_tables import write_lines_csv, write_walls_csv
     from checks.report.findings_out import write_findings
-    from checks.report.html_report import write_report
     from checks.report.results_json import write_results_json
+    from ifc_bridge.gc_pause import collection_paused
 
     checks = getattr(run.checks, "pier_checks", {})
     written: dict[str, Path] = {}
-    try:
-        written["results"] = write_results_json(
-            out / "results.json", run.allocation, source=str(run.model.source),
-            pier_checks=checks,
-        )
-        written["walls"] = write_walls_csv(out / "walls.csv", run.allocation,
-                                           pier_checks=checks, system=system)
-        written["lines"] = write_lines_csv(out / "lines.csv", run.allocation, system=system)
-        written.update(write_findings(run, out, previous=previous, version=bcf_version))
-        written["report"] = write_report(out / "report.html", run, system=system)
-    except OSError as exc:
-        msg = f"{out}: cannot write outputs: {exc}"
-        raise OutputError(msg) from exc
+    report = out / "report.html"
+    with collection_paused():
+        part, pending = _report_beside(run, report, system=system, parallel=parallel)
+        try:
+            written["results"] = write_results_json(
+                out / "results.json",
+                run.allocation,
+                source=str(run.model.source),
+                pier_checks=checks,
+            )
+            written["walls"] = write_walls_csv(
+                out / "walls.csv", run.allocation, pier_checks=checks, system=system
+            )
+            written["lines"] = write_lines_csv(
+                out / "lines.csv", run.allocation, system=system
+            )
+            written.update(
+                write_findings(run, out, previous=previous, version=bcf_version)
+            )
+            written["report"] = _report_done(pending, part, report)
+        except OSError as exc:
+            msg = f"{out}: cannot write outputs: {exc}"
+            raise OutputError(msg) from exc
+        finally:
+            pending.cancel()
+            with contextlib.suppress(OSError):
+                part.unlink(missing_ok=True)
     if annotate:
         from ifc_bridge.write_ifc_copy import write_ifc_copy
 

@@ -11,9 +11,9 @@ from __future__ import annotations
 
 import math
 from collections.abc import Sequence
-from dataclasses import dataclass
+from dataclasses import dataclass, field
 
-from ifc_bridge.model import BuildingModel
+from ifc_bridge.model import BuildingModel, WallSegment
 
 __all__ = ["Box", "Camera", "element_box", "frame_box"]
 
@@ -75,24 +75,91 @@ class Camera:
     aspect_ratio: float = 1.0
 
 
-def _box_of(points: Sequence[tuple[float, float, float]]) -> Box:
-    xs, ys, zs = zip(*points, strict=True)
-    return Box(lo=(min(xs), min(ys), min(zs)), hi=(max(xs), max(ys), max(zs)))
+@dataclass(frozen=True, slots=True)
+class _Extent:
+    """Coordinates of the corners of what a box must hold, one list per axis [m].
+
+    Each corner's value appears in the order of the corners (repeats dropped), so
+    ``min`` and ``max`` pick the same value as over the corners themselves.
+    """
+
+    xs: list[float] = field(default_factory=list)
+    ys: list[float] = field(default_factory=list)
+    zs: list[float] = field(default_factory=list)
+
+    def add_bounds(self, bounds: tuple[float, float, float, float], z: float) -> None:
+        x0, y0, x1, y1 = bounds
+        self.xs.extend((x0, x1))
+        self.ys.extend((y0, y1))
+        self.zs.extend((z, z))
+
+    def box(self) -> Box | None:
+        if not self.xs:
+            return None
+        xs, ys, zs = self.xs, self.ys, self.zs
+        return Box(lo=(min(xs), min(ys), min(zs)), hi=(max(xs), max(ys), max(zs)))
 
 
-def _wall_points(
-    model: BuildingModel, guids: set[str], level: str
-) -> list[tuple[float, float, float]]:
-    """Corners of the finding's wall segments, preferring those under ``level``."""
-    walls = [w for w in model.walls if w.guid in guids]
+@dataclass(frozen=True, slots=True)
+class _ModelIndex:
+    """A model's walls by GlobalId and by level, and its diaphragms by slab GlobalId.
+
+    Attributes:
+        walls: GlobalId -> (position in ``model.walls``, segment), in model order.
+        levels: Level name -> its wall segments, in model order.
+        slabs: Slab GlobalId -> positions in ``model.diaphragms``, ascending.
+        level_boxes: Level name -> box of its walls and diaphragms, filled when asked.
+    """
+
+    walls: dict[str, list[tuple[int, WallSegment]]]
+    levels: dict[str, list[WallSegment]]
+    slabs: dict[str, list[int]]
+    level_boxes: dict[str, Box | None] = field(default_factory=dict)
+
+
+_INDEX: dict[int, tuple[BuildingModel, _ModelIndex]] = {}
+
+
+def _index(model: BuildingModel) -> _ModelIndex:
+    """The index of a model, built once (the writers frame one model's findings)."""
+    hit = _INDEX.get(id(model))
+    if hit is not None and hit[0] is model:
+        return hit[1]
+    walls: dict[str, list[tuple[int, WallSegment]]] = {}
+    levels: dict[str, list[WallSegment]] = {}
+    for i, w in enumerate(model.walls):
+        walls.setdefault(w.guid, []).append((i, w))
+        levels.setdefault(w.level, []).append(w)
+    slabs: dict[str, list[int]] = {}
+    for i, d in enumerate(model.diaphragms):
+        for g in dict.fromkeys(d.slab_guids):
+            slabs.setdefault(g, []).append(i)
+    index = _ModelIndex(walls=walls, levels=levels, slabs=slabs)
+    _INDEX.clear()  # keep only the latest model alive
+    _INDEX[id(model)] = (model, index)
+    return index
+
+
+def _walls_named(index: _ModelIndex, guids: set[str]) -> list[WallSegment]:
+    """Wall segments whose GlobalId is one of ``guids``, in model order."""
+    hits = [hit for g in guids for hit in index.walls.get(g, ())]
+    if len(guids) > 1:
+        hits.sort(key=lambda hit: hit[0])
+    return [w for _, w in hits]
+
+
+def _wall_extent(walls: Sequence[WallSegment], level: str) -> _Extent:
+    """Corners of the wall segments, preferring those under ``level``."""
     on_level = [w for w in walls if w.level == level]
-    points: list[tuple[float, float, float]] = []
+    ext = _Extent()
+    xs, ys, zs = ext.xs, ext.ys, ext.zs
     for w in on_level or walls:
         half = w.thickness / 2.0
-        for x, y in (w.start, w.end):
-            for z in (w.base_elevation, w.top_elevation):
-                points.extend(((x - half, y - half, z), (x + half, y + half, z)))
-    return points
+        (sx, sy), (ex, ey) = w.start, w.end
+        xs.extend((sx - half, sx + half, ex - half, ex + half))
+        ys.extend((sy - half, sy + half, ey - half, ey + half))
+        zs.extend((w.base_elevation, w.top_elevation))
+    return ext
 
 
 def _level_elevation(model: BuildingModel, level: str) -> float:
@@ -123,29 +190,37 @@ def element_box(
     Returns:
         The box [m].
     """
+    index = _index(model)
     wanted = set(guids)
-    points = _wall_points(model, wanted, level)
-    for d in model.diaphragms:
-        if wanted & set(d.slab_guids):
-            x0, y0, x1, y1 = d.polygon.bounds
-            points.extend(((x0, y0, d.elevation), (x1, y1, d.elevation)))
-    if points:
-        return _box_of(points)
+    ext = _wall_extent(_walls_named(index, wanted), level)
+    for i in sorted({i for g in wanted for i in index.slabs.get(g, ())}):
+        d = model.diaphragms[i]
+        ext.add_bounds(d.polygon.bounds, d.elevation)
+    box = ext.box()
+    if box is not None:
+        return box
     z = _level_elevation(model, level)
     if location is not None:
         x, y = location
         h = _POINT_HALF_SIZE
         return Box(lo=(x - h, y - h, z - _STOREY_HEIGHT), hi=(x + h, y + h, z))
-    level_guids = {w.guid for w in model.walls if not level or w.level == level}
-    points = _wall_points(model, level_guids, level)
-    for d in model.diaphragms:
-        if not level or d.level == level:
-            x0, y0, x1, y1 = d.polygon.bounds
-            points.extend(((x0, y0, d.elevation), (x1, y1, d.elevation)))
-    if points:
-        return _box_of(points)
+    box = _level_box(model, index, level)
+    if box is not None:
+        return box
     h = _POINT_HALF_SIZE
     return Box(lo=(-h, -h, z - _STOREY_HEIGHT), hi=(h, h, z))
+
+
+def _level_box(model: BuildingModel, index: _ModelIndex, level: str) -> Box | None:
+    """Box of every wall and diaphragm of the level (of the model when ``""``)."""
+    if level in index.level_boxes:
+        return index.level_boxes[level]
+    ext = _wall_extent(index.levels.get(level, []) if level else model.walls, level)
+    for d in model.diaphragms:
+        if not level or d.level == level:
+            ext.add_bounds(d.polygon.bounds, d.elevation)
+    box = index.level_boxes[level] = ext.box()
+    return box
 
 
 def frame_box(box: Box, *, aspect_ratio: float = 4.0 / 3.0) -> Camera:

@@ -5,16 +5,33 @@ Every string from the model or the config is escaped here or by the caller.
 
 from __future__ import annotations
 
-import re
+from collections.abc import Mapping
+from dataclasses import dataclass, field
 from html import escape
 
 from allocation.asce7_16 import s12_8_elf
 from allocation.errors import AllocationError
 from allocation.load_path import explain_pier, level_totals
 from checks.project import DisplayUnits
+from checks.report._formats import Formats
 from checks.units import format_value
 
-__all__ = ["html_id", "load_path_cell", "seismic_section"]
+__all__ = ["LoadPaths", "html_id", "seismic_section"]
+
+
+class _IdChars(dict):
+    """Code point -> itself when a letter, digit or ``-`` (ASCII), else ``_<hex>_``."""
+
+    __slots__ = ()
+
+    def __missing__(self, code: int) -> str:
+        char = chr(code)
+        keep = char.isascii() and (char.isalnum() or char == "-")
+        out = self[code] = char if keep else f"_{code:x}_"
+        return out
+
+
+_ID_CHARS = _IdChars()
 
 
 def html_id(kind: str, *parts: str) -> str:
@@ -29,10 +46,7 @@ def html_id(kind: str, *parts: str) -> str:
     Returns:
         The id.
     """
-    text = "|".join(parts)
-    return (
-        kind + "-" + re.sub(r"[^A-Za-z0-9-]", lambda m: f"_{ord(m.group()):x}_", text)
-    )
+    return kind + "-" + "|".join(parts).translate(_ID_CHARS)
 
 
 def _row(key: str, value: str) -> str:
@@ -134,50 +148,52 @@ def _source(src: str) -> str:
 
 
 _DETAIL_NODES = 3000  # graphs larger than this show per-level totals only
-_TOTALS: dict[int, tuple[object, dict]] = {}
 
 
-def _totals(graph) -> dict:
-    """Per-level totals of every pier of a graph, computed once per graph."""
-    hit = _TOTALS.get(id(graph))
-    if hit is None or hit[0] is not graph:
-        if len(_TOTALS) >= 4:  # the X and Y graphs of one run, and one more
-            _TOTALS.clear()
-        hit = _TOTALS[id(graph)] = (graph, level_totals(graph))
-    return hit[1]
-
-
-def load_path_cell(graphs, pier, system: DisplayUnits) -> str:
-    """Where a pier's flexible force comes from: per level, then per source.
+@dataclass(frozen=True, slots=True)
+class LoadPaths:
+    """The load-path cells of one report: where each pier's flexible force comes from.
 
     Common practice (DESIGN.md item 10): the load path from
-    :func:`allocation.load_path.level_totals` and, on graphs small enough to list
-    every source, :func:`allocation.load_path.explain_pier`.
+    :func:`allocation.load_path.level_totals`, computed once per graph (one pass for
+    all piers) and, on graphs small enough to list every source,
+    :func:`allocation.load_path.explain_pier`.
 
-    Args:
+    Attributes:
         graphs: ``Allocation.graphs`` (load-path graph per direction).
-        pier: The pier.
-        system: Display units.
-
-    Returns:
-        HTML text for a table cell ("-" when the pier has no load path).
+        fm: The report's formatters.
     """
-    graph = graphs.get(pier.direction) if pier.direction is not None else None
-    if graph is None:
-        return "-"
-    by_level = _totals(graph).get(pier.id)
-    if not by_level:
-        return "-"
-    f = lambda v: format_value(v, "force", system)  # noqa: E731
-    head = "; ".join(f"{escape(lv)} {f(v)}" for lv, v in sorted(by_level.items()))
-    if graph.number_of_nodes() > _DETAIL_NODES:
-        return f"<span>{head}</span>"
-    try:
-        parts = explain_pier(graph, pier.id)
-    except AllocationError:
-        return f"<span>{head}</span>"
-    items = "".join(
-        f"<li>{escape(c.level)}: {_source(c.source)}, share {c.share:.3f} → {f(c.force)}</li>"
-        for c in parts
-    )
-    return f"<details><summary>{head}</summary><ul>{items}</ul></details>"
+
+    graphs: Mapping
+    fm: Formats
+    _totals: dict = field(default_factory=dict)
+
+    def _totals_of(self, direction, graph) -> dict:
+        hit = self._totals.get(direction)
+        if hit is None:
+            hit = self._totals[direction] = level_totals(graph)
+        return hit
+
+    def cell(self, pier) -> str:
+        """HTML text for the pier's table cell ("-" when it has no load path)."""
+        direction = pier.direction
+        graph = self.graphs.get(direction) if direction is not None else None
+        if graph is None:
+            return "-"
+        by_level = self._totals_of(direction, graph).get(pier.id)
+        if not by_level:
+            return "-"
+        f, esc = self.fm.force, self.fm.escape
+        head = "; ".join([f"{esc(lv)} {f(v)}" for lv, v in sorted(by_level.items())])
+        if graph.number_of_nodes() > _DETAIL_NODES:
+            return f"<span>{head}</span>"
+        try:
+            parts = explain_pier(graph, pier.id)
+        except AllocationError:
+            return f"<span>{head}</span>"
+        items = "".join(
+            f"<li>{esc(c.level)}: {_source(c.source)}, share {c.share:.3f} → "
+            f"{f(c.force)}</li>"
+            for c in parts
+        )
+        return f"<details><summary>{head}</summary><ul>{items}</ul></details>"

@@ -7,7 +7,7 @@ Each column that carries a quantity names its unit in the header
 from __future__ import annotations
 
 import csv
-from collections.abc import Mapping
+from collections.abc import Callable, Mapping
 from pathlib import Path
 from typing import Any
 
@@ -23,11 +23,17 @@ def _unit_label(quantity: str, system: DisplayUnits) -> str:
     return unit.replace("²", "2").replace("·", "").replace("/", "_per_")
 
 
-def _disp(value: float | None, quantity: str, system: DisplayUnits) -> str:
-    if value is None:
-        return ""
-    v, _ = to_display(value, quantity, system)
-    return f"{v:.6g}"
+def _shown(quantity: str, system: DisplayUnits) -> Callable[[float | None], str]:
+    """SI value -> its text in display units (six significant figures), or ``""``.
+
+    The display factor is looked up once per column (``to_display`` is linear).
+    """
+    factor, _ = to_display(1.0, quantity, system)
+
+    def shown(value: float | None) -> str:
+        return "" if value is None else f"{float(value) * factor:.6g}"
+
+    return shown
 
 
 def write_walls_csv(
@@ -73,6 +79,8 @@ def write_walls_csv(
         f"capacity_{v_u}",
         "dcr",
     ]
+    length, force = _shown("length", system), _shown("force", system)
+    per_length = _shown("force_per_length", system)
     path = Path(path)
     with path.open("w", newline="", encoding="utf-8") as fh:
         w = csv.writer(fh)
@@ -91,15 +99,15 @@ def write_walls_csv(
                     p.line,
                     p.pier,
                     p.assembly,
-                    _disp(p.length, "length", system),
-                    _disp(p.height, "length", system),
-                    _disp(env.flexible if env else None, "force", system),
-                    _disp(env.rigid if env else None, "force", system),
-                    _disp(env.envelope if env else None, "force", system),
+                    length(p.length),
+                    length(p.height),
+                    force(env.flexible if env else None),
+                    force(env.rigid if env else None),
+                    force(env.envelope if env else None),
                     env.governing_method.value if env else "",
                     env.governing_case if env else "",
-                    _disp(getattr(c, "unit_shear", None), "force_per_length", system),
-                    _disp(getattr(c, "capacity", None), "force_per_length", system),
+                    per_length(getattr(c, "unit_shear", None)),
+                    per_length(getattr(c, "capacity", None)),
                     "" if dcr is None else f"{dcr:.4f}",
                 ]
             )
@@ -134,6 +142,7 @@ def write_lines_csv(
         f"envelope_force_{f_u}",
         "piers",
     ]
+    length, force = _shown("length", system), _shown("force", system)
     path = Path(path)
     with path.open("w", newline="", encoding="utf-8") as fh:
         w = csv.writer(fh)
@@ -145,12 +154,12 @@ def write_lines_csv(
                     ln.id,
                     ln.level,
                     ln.direction.value,
-                    _disp(ln.offset, "length", system),
-                    _disp(ln.wall_length, "length", system),
-                    _disp(ln.collector_length, "length", system),
-                    _disp(forces.get("flexible"), "force", system),
-                    _disp(forces.get("rigid"), "force", system),
-                    _disp(forces.get("envelope"), "force", system),
+                    length(ln.offset),
+                    length(ln.wall_length),
+                    length(ln.collector_length),
+                    force(forces.get("flexible")),
+                    force(forces.get("rigid")),
+                    force(forces.get("envelope")),
                     len(ln.piers),
                 ]
             )

@@ -28,9 +28,9 @@ def current_state(run) -> dict[str, str]:
     Quoted in the comment that closes a topic, so the design team sees the new
     numbers of the wall they changed.
     """
-    from checks.units import format_value
+    from checks.report._formats import memo_formatter
 
-    system = run.config.display_units
+    v = memo_formatter("force_per_length", run.config.display_units)
     best: dict[str, tuple[float, str]] = {}
     checks = getattr(run.checks, "pier_checks", {})
     for p in run.allocation.piers:
@@ -39,9 +39,8 @@ def current_state(run) -> dict[str, str]:
         if dcr is None:
             continue
         text = (
-            f"wall {p.name!r} DCR {dcr:.2f} (v = "
-            f"{format_value(c.unit_shear, 'force_per_length', system)} against "
-            f"{format_value(c.capacity, 'force_per_length', system)} supporting {p.level!r})"
+            f"wall {p.name!r} DCR {dcr:.2f} (v = {v(c.unit_shear)} against "
+            f"{v(c.capacity)} supporting {p.level!r})"
         )
         if p.guid not in best or dcr > best[p.guid][0]:
             best[p.guid] = (dcr, text)

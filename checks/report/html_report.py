@@ -15,10 +15,11 @@ from pathlib import Path
 
 from checks.findings import Severity
 from checks.project import DisplayUnits
-from checks.report._html_parts import html_id, load_path_cell, seismic_section
-from checks.report.plan_svg import PlanLine, PlanWall, legend_svg, plan_svg
+from checks.report._formats import Formats
+from checks.report._html_level import LevelContext, level_section, wall_anchor
+from checks.report._html_parts import html_id, seismic_section
 from checks.report.results_json import CAUTION
-from checks.units import format_value, to_display
+from checks.units import format_value
 
 __all__ = ["render_report", "wall_anchor", "write_report"]
 
@@ -70,194 +71,13 @@ _DEFS = (
 _ORDER = {Severity.ERROR: 0, Severity.WARNING: 1, Severity.INFO: 2}
 
 
-def wall_anchor(guid: str, level: str) -> str:
-    """HTML id of a wall's mark on the plan of a level (findings link here).
-
-    Args:
-        guid: GlobalId of the IfcWall.
-        level: Level whose diaphragm the wall supports.
-
-    Returns:
-        The id.
-    """
-    return html_id("wall", guid, level)
-
-
-def _piers_by_line(alloc, level: str) -> list[tuple[object | None, list]]:
-    """Lines of a level with their piers in order along the line; then piers off a line."""
-    piers = [p for p in alloc.piers if p.level == level]
-    out = []
-    for ln in (x for x in alloc.lines if x.level == level):
-        axis = 0 if ln.direction.value == "X" else 1
-        on = [p for p in piers if p.line == ln.id]
-        first = {}
-        for p in on:
-            at = min(p.start[axis], p.end[axis])
-            first[p.guid] = min(first.get(p.guid, at), at)
-        on.sort(key=lambda p: (first[p.guid], p.guid, p.pier))
-        out.append((ln, on))
-    rest = [p for p in piers if not any(p.line == ln.id for ln, _ in out)]
-    if rest:
-        out.append((None, rest))
-    return out
-
-
-def _tags(groups) -> dict[str, str]:
-    tags: dict[str, str] = {}
-    for _, piers in groups:
-        for p in piers:
-            tags.setdefault(p.guid, f"W{len(tags) + 1}")
-    return tags
-
-
-def _plan(run, level, groups, tags, system: DisplayUnits) -> str:
-    alloc, checks = run.allocation, getattr(run.checks, "pier_checks", {})
-    f = lambda v: format_value(v, "force", system)  # noqa: E731
-    walls = [
-        PlanWall(
-            group=wall_anchor(p.guid, p.level),
-            row=html_id("pier", p.id),
-            guid=p.guid,
-            label=p.name,
-            tag=tags[p.guid],
-            start=p.start,
-            end=p.end,
-            dcr=getattr(checks.get(p.id), "dcr", None),
-        )
-        for _, piers in groups
-        for p in piers
-    ]
-    lines = [
-        PlanLine(
-            id=ln.id,
-            direction=ln.direction.value,
-            offset=ln.offset,
-            force_label=f(alloc.line_envelope.get(ln.id, {}).get("envelope", 0.0)),
-        )
-        for ln, _ in groups
-        if ln is not None
-    ]
-    per_unit, label = to_display(1.0, "length", system)
-    cm, cr = _centres(run, level)
-    return plan_svg(
-        level=level.level,
-        diaphragms=[
-            (html_id("diaphragm", d.id), d.polygon)
-            for d in run.model.diaphragms_of(level.level)
-        ],
-        walls=walls,
-        lines=lines,
-        centre_of_mass=cm,
-        centre_of_rigidity=cr,
-        scale_unit=(label, 1.0 / per_unit),
-    )
-
-
-def _centres(run, level):
-    rigid = [r for r in run.allocation.rigid if r.level == level.level]
-    if rigid:
-        return rigid[0].center_of_mass, rigid[0].center_of_rigidity
-    return level.mass_centroid, None
-
-
-def _caption(run, level, system: DisplayUnits) -> str:
-    cm, cr = _centres(run, level)
-    m = lambda v: format_value(v, "length", system)  # noqa: E731
-    text = f"CM ({m(cm[0])}, {m(cm[1])}): centre of mass of the levels at and above."
-    if cr is not None:
-        text += (
-            f" CR ({m(cr[0])}, {m(cr[1])}): centre of rigidity of the walls below;"
-            f" CR − CM = ({m(cr[0] - cm[0])}, {m(cr[1] - cm[1])})."
-        )
-    return (
-        f"<p><small>{text} Arrows show the positive sense of each line's force; the "
-        "value is the envelope over both senses, ±accidental eccentricity and both "
-        "idealisations. Tags W1, W2, ... key the walls to the table; a ratio is "
-        "printed beside walls at or over capacity. Click a wall for its row.</small></p>"
-    )
-
-
-def _line_row(ln, alloc, system: DisplayUnits) -> str:
-    f = lambda v: format_value(v, "force", system)  # noqa: E731
-    m = lambda v: format_value(v, "length", system)  # noqa: E731
-    if ln is None:
-        return '<tr class="line"><td class="t" colspan="14">Not on a line of resistance</td></tr>'
-    fo = alloc.line_envelope.get(ln.id, {})
-    where = "y" if ln.direction.value == "X" else "x"
-    return (
-        f'<tr class="line" id="{html_id("line", ln.id)}"><td class="t" colspan="5">'
-        f"Line {escape(ln.id)} ({escape(ln.direction.value)}), {where} = {m(ln.offset)};"
-        f" collector {m(ln.collector_length)}</td><td>{m(ln.wall_length)}</td>"
-        f"<td>{f(fo.get('flexible', 0.0))}</td><td>{f(fo.get('rigid', 0.0))}</td>"
-        f"<td>{f(fo.get('envelope', 0.0))}</td><td colspan='5'></td></tr>"
-    )
-
-
-def _pier_row(p, run, tags, system: DisplayUnits, *, first: bool) -> str:
-    alloc, checks = run.allocation, getattr(run.checks, "pier_checks", {})
-    f = lambda v: format_value(v, "force", system)  # noqa: E731
-    v = lambda x: "-" if x is None else format_value(x, "force_per_length", system)  # noqa: E731
-    env, c = alloc.envelope.get(p.id), checks.get(p.id)
-    dcr = getattr(c, "dcr", None)
-    gov = f"{env.governing_method.value} {env.governing_case}" if env else "-"
-    ratio = "-" if dcr is None else f"{dcr:.2f}"
-    name = (
-        f"{escape(p.name)}<br><small>{escape(p.guid)}</small>"
-        if first
-        else "<small>(same wall)</small>"
-    )
-    return (
-        f'<tr id="{html_id("pier", p.id)}"><td class="t"><a href="#{wall_anchor(p.guid, p.level)}">'
-        f"{escape(tags[p.guid])}</a></td><td class='t'>{name}</td><td>{p.pier}</td>"
-        f"<td>{escape(p.direction.value if p.direction else '-')}</td>"
-        f"<td class='t'>{escape(p.assembly or '-')}</td>"
-        f"<td>{format_value(p.length, 'length', system)}</td>"
-        f"<td>{f(env.flexible) if env else '-'}</td><td>{f(env.rigid) if env else '-'}</td>"
-        f"<td><b>{f(env.envelope) if env else '-'}</b></td><td class='g'>{escape(gov)}</td>"
-        f"<td>{v(getattr(c, 'unit_shear', None))}</td><td>{v(getattr(c, 'capacity', None))}</td>"
-        f"<td{' class=over' if dcr is not None and dcr >= 1.0 else ''}>{ratio}</td>"
-        f"<td class='lp'>{load_path_cell(alloc.graphs, p, system)}</td></tr>"
-    )
-
-
-def _level(run, level, system: DisplayUnits) -> str:
-    groups = _piers_by_line(run.allocation, level.level)
-    tags = _tags(groups)
-    storeys = sorted({p.storey for _, ps in groups for p in ps})
-    below = f" — walls of {escape(', '.join(storeys))}" if storeys else ""
-    rows = []
-    for ln, piers in groups:
-        rows.append(_line_row(ln, run.allocation, system))
-        rows += [
-            _pier_row(p, run, tags, system, first=i == 0 or piers[i - 1].guid != p.guid)
-            for i, p in enumerate(piers)
-        ]
-    table = (
-        "<table class='walls'><thead><tr><th class='t'>Tag</th><th class='t'>Wall</th>"
-        "<th>Pier</th><th>Dir</th><th class='t'>Assembly</th><th>Length</th>"
-        "<th>Flexible</th><th>Rigid</th><th>Envelope</th><th class='t'>Governs</th>"
-        "<th>v = V/L</th><th>Capacity</th><th>DCR</th>"
-        "<th class='t'>Load path (flexible)</th></tr></thead><tbody>"
-        + "".join(rows)
-        + "</tbody></table>"
-    )
-    return (
-        f'<section class="level" id="{html_id("level", level.level)}">'
-        f"<h2>{escape(level.level)}: diaphragm{below}</h2>"
-        f"<p>Fx = {format_value(level.story_force, 'force', system)}, "
-        f"Vx = {format_value(level.story_shear, 'force', system)}, "
-        f"Fpx = {format_value(level.diaphragm_force, 'force', system)}</p>"
-        f"{_plan(run, level, groups, tags, system)}{legend_svg()}"
-        f"{_caption(run, level, system)}{table}</section>"
-    )
-
-
 def _link_targets(run) -> dict[tuple[str, str], str]:
     """(GlobalId, level) -> id of its mark in the report; level "" = any level."""
     out: dict[tuple[str, str], str] = {}
     for p in run.allocation.piers:
-        out.setdefault((p.guid, p.level), wall_anchor(p.guid, p.level))
-        out.setdefault((p.guid, ""), wall_anchor(p.guid, p.level))
+        if (p.guid, p.level) not in out:
+            anchor = out[(p.guid, p.level)] = wall_anchor(p.guid, p.level)
+            out.setdefault((p.guid, ""), anchor)
     levels = {lv.level for lv in run.allocation.levels}
     for d in run.model.diaphragms:
         if d.level in levels:
@@ -336,6 +156,7 @@ def render_report(run, *, system: DisplayUnits) -> str:
         The HTML document.
     """
     cfg, levels = run.config, list(reversed(run.allocation.levels))
+    ctx = LevelContext.of(run, Formats.of(system))
     nav = "".join(
         f'<a href="#{html_id("level", lv.level)}">{escape(lv.level)}</a>'
         for lv in levels
@@ -350,7 +171,7 @@ def render_report(run, *, system: DisplayUnits) -> str:
             f'<nav><a href="#seismic">Seismic</a>{nav}<a href="#findings">Findings</a>'
             '<a href="#assumptions">Assumptions</a></nav>',
             seismic_section(run, system),
-            *(_level(run, lv, system) for lv in levels),
+            *(level_section(ctx, lv) for lv in levels),
             _findings(run),
             '<section id="assumptions"><h2>Assumptions</h2><ul>'
             + "".join(f"<li>{escape(x)}</li>" for x in _assumptions(run, system))

@@ -218,38 +218,55 @@ def _walls(walls: list[PlanWall], fr: _Frame, centre: tuple[float, float]) -> li
     groups: dict[str, list[PlanWall]] = {}
     for w in walls:
         groups.setdefault(w.group, []).append(w)
+    centre_px = fr.pt(*centre)
+    left, top, x0, y1, s = _LEFT, _TOP, fr.x0, fr.y1, fr.s
     out = []
     for gid, piers in groups.items():
         first = piers[0]
         worst = max((p.dcr for p in piers if p.dcr is not None), default=None)
         ratio = "no capacity" if worst is None else f"DCR {worst:.2f}"
+        guid = escape(first.guid)
         parts = [
-            f'<g class="wall" id="{escape(gid)}" data-guid="{escape(first.guid)}">'
-            f"<title>{escape(first.tag)} {escape(first.label)} ({escape(first.guid)})"
+            f'<g class="wall" id="{escape(gid)}" data-guid="{guid}">'
+            f"<title>{escape(first.tag)} {escape(first.label)} ({guid})"
             f": {ratio}</title>"
         ]
+        ends = []
         for p in piers:
-            (ax, ay), (bx, by) = fr.pt(*p.start), fr.pt(*p.end)
+            (sx, sy), (ex, ey) = p.start, p.end
+            # as _Frame.pt, inline: one plan draws thousands of piers
+            ax, ay = left + (sx - x0) * s, top + (y1 - sy) * s
+            bx, by = left + (ex - x0) * s, top + (y1 - ey) * s
+            ends.append((ax, ay, bx, by))
             parts.append(
                 f'<a href="#{escape(p.row)}">'
                 f"{pier_strokes(band_of(p.dcr), ax, ay, bx, by)}</a>"
             )
-        parts.append(_tag(piers, fr, centre, worst))
+        parts.append(_tag(piers, ends, centre_px, worst))
         out.append("".join(parts) + "</g>")
     return out
 
 
 def _tag(
-    piers: list[PlanWall], fr: _Frame, centre: tuple[float, float], worst: float | None
+    piers: list[PlanWall],
+    ends: list[tuple[float, float, float, float]],
+    centre_px: tuple[float, float],
+    worst: float | None,
 ) -> str:
-    p = max(
-        piers, key=lambda q: (q.end[0] - q.start[0]) ** 2 + (q.end[1] - q.start[1]) ** 2
+    """The wall's tag beside its longest pier, on the side of the centre of mass."""
+    i = max(
+        range(len(piers)),
+        key=lambda k: (
+            (piers[k].end[0] - piers[k].start[0]) ** 2
+            + (piers[k].end[1] - piers[k].start[1]) ** 2
+        ),
     )
-    (ax, ay), (bx, by) = fr.pt(*p.start), fr.pt(*p.end)
+    p = piers[i]
+    ax, ay, bx, by = ends[i]
     mx, my = (ax + bx) / 2.0, (ay + by) / 2.0
     length = max(((bx - ax) ** 2 + (by - ay) ** 2) ** 0.5, 1e-9)
     nx, ny = -(by - ay) / length, (bx - ax) / length
-    cx, cy = fr.pt(*centre)
+    cx, cy = centre_px
     if (cx - mx) * nx + (cy - my) * ny < 0:  # put the tag on the inner side
         nx, ny = -nx, -ny
     tx, ty = mx + 17.0 * nx, my + 17.0 * ny

@@ -6,13 +6,13 @@ fields beyond it are additions other tools may ignore. Units: N, m, N/m, through
 
 from __future__ import annotations
 
-import json
 import math
 from collections.abc import Mapping
 from pathlib import Path
 from typing import Any
 
 from allocation.results import Allocation, Pier
+from checks.report._json_text import dumps_indented
 
 __all__ = ["CAUTION", "results_document", "write_results_json"]
 
@@ -152,5 +152,5 @@ def write_results_json(
     """Write ``results.json``; returns the path written."""
     path = Path(path)
     doc = results_document(allocation, source=source, pier_checks=pier_checks)
-    path.write_text(json.dumps(doc, indent=2, allow_nan=False) + "\n", encoding="utf-8")
+    path.write_text(dumps_indented(doc) + "\n", encoding="utf-8")
     return path

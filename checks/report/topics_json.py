@@ -26,6 +26,7 @@ from typing import Any
 from checks.errors import BcfError, OutputError
 from checks.findings import Finding
 from checks.report._camera import Camera
+from checks.report._json_text import dumps_indented
 from checks.report._topics_json_parse import EXTENSION_KEY, SCHEMA, dict_to_topics
 from checks.report.bcf_topics import (
     Comment,
@@ -226,9 +227,7 @@ def topics_to_json(
             current=current,
         )
         topics = apply_plan(previous, plan, model=model)
-    text = json.dumps(
-        topics_to_dict(topics), indent=2, ensure_ascii=False, allow_nan=False
-    )
+    text = dumps_indented(topics_to_dict(topics), ensure_ascii=False)
     path = Path(path)
     try:
         path.write_text(text + "\n", encoding="utf-8")

@@ -8,7 +8,6 @@ id, so the same inputs always give the same list.
 
 from __future__ import annotations
 
-import dataclasses
 from dataclasses import dataclass
 
 from allocation.results import Allocation, PierId
@@ -38,6 +37,7 @@ from checks.rules.model.import_issues import check_import_issues
 from checks.rules.model.unmatched_shear_walls import check_unmatched_shear_walls
 from checks.rules.sdpws_2015.aspect_ratio import check_aspect_ratio
 from checks.rules.sdpws_2015.diaphragm_aspect_ratio import check_diaphragm_aspect_ratio
+from ifc_bridge.gc_pause import collection_paused
 from ifc_bridge.model import BuildingModel
 
 __all__ = ["CheckResult", "run_checks", "sort_findings"]
@@ -92,19 +92,22 @@ def run_checks(
     Returns:
         Findings and the per-pier numbers for ``results.json``.
     """
+    with collection_paused():
+        return _run_checks(model, allocation, config)
+
+
+def _run_checks(
+    model: BuildingModel, allocation: Allocation, config: ProjectConfig
+) -> CheckResult:
     redundancy = evaluate_redundancy(allocation, config, model=model)
     rho = redundancy.rho
-    checks = pier_checks(allocation, config, rho=rho)
     holds = hold_down_forces(allocation, config, rho=rho)
-    checks = {
-        pid: dataclasses.replace(c, hold_down_tension=holds[pid].tension)
-        if pid in holds
-        else c
-        for pid, c in checks.items()
-    }
+    checks = pier_checks(allocation, config, rho=rho, hold_downs=holds)
     demands = diaphragm_demands(allocation, config)
     findings: list[Finding] = []
-    findings += check_unit_shear(allocation, config, model=model, rho=rho)
+    findings += check_unit_shear(
+        allocation, config, model=model, rho=rho, checks=checks
+    )
     findings += check_aspect_ratio(allocation, config)
     findings += check_overturning(allocation, config, hold_downs=holds)
     findings += check_diaphragm(model, allocation, config, demands=demands)

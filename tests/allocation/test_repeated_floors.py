@@ -8,18 +8,21 @@ vectorised placement of many points agrees with the one-point functions.
 
 from __future__ import annotations
 
+import math
+
 import numpy as np
 import pytest
 from hypothesis import given, settings
 from hypothesis import strategies as st
 from shapely.geometry import Polygon
 
-from allocation import _crossing, _pieces, _tributary
+from allocation import _crossing, _loading, _pieces, _tributary
 from allocation._memo import Memo
 from allocation._pieces import Support, split_region
 from allocation._tributary import Slot, host, make_slots, on_line
 from allocation.lines import find_lines, line_crossing
 from allocation.piers import make_piers
+from allocation.results import MassItem
 from ifc_bridge.model import Direction
 from tests.allocation._plans import OPTIONS, diaphragm, x_wall
 
@@ -139,3 +142,65 @@ def test_vectorised_placement_matches_the_one_point_functions(points):
             continue
         slot, hu, hv = host(pu, pv, slots)
         assert (slots[j].id, qu, qv) == (slot.id, hu, hv)  # bit-identical
+
+
+def _one_at_a_time(items, slots, wall_lines):
+    """The loading item by item with the one-point functions (the reference)."""
+    direct: dict[str, float] = {}
+    lost = 0.0
+    for item in items:
+        parts = (
+            []
+            if item.polygon is None
+            else _tributary._spread(item.polygon, slots, Direction.X)
+        )
+        base = math.fsum(area for _, area, _ in parts)
+        if base > 0.0:
+            for slot, area, (u, v) in parts:
+                slot.add(item.weight * area / base, u, v)
+            continue
+        line = (
+            wall_lines.get((item.ref, item.pier_part))
+            if item.source == "wall"
+            else None
+        )
+        u, v = item.location
+        line = line or on_line(u, v, slots)
+        if line is not None:
+            direct[line] = direct.get(line, 0.0) + item.weight
+        elif slots:
+            slot, hu, hv = host(u, v, slots)
+            slot.add(item.weight, hu, hv)
+        else:
+            lost += item.weight
+    return direct, lost
+
+
+weight = st.floats(min_value=0.0, max_value=1e4, allow_nan=False)
+
+
+@FAST
+@given(st.lists(st.tuples(coordinate, coordinate, weight, st.booleans()), max_size=25))
+def test_loading_by_arrays_and_from_memory_is_the_loading_item_by_item(points):
+    region = diaphragm(SLAB)
+    slab = MassItem(
+        source="slab", ref=region.id, weight=240e3, location=(10.0, 6.0), polygon=SLAB
+    )
+    walls = [
+        MassItem(source="wall", ref=f"W{n}", weight=w, location=(u, v))
+        for n, (u, v, w, _) in enumerate(points)
+    ]
+    extra = MassItem(
+        source="extra", ref=region.id, weight=5e3, location=(10.0, 6.0), polygon=SLAB
+    )  # a spread item after the points (order matters)
+    items = (slab, *walls[: len(walls) // 2], extra, *walls[len(walls) // 2 :])
+    in_line = {(f"W{n}", 0): "L1-X-2" for n, (*_, yes) in enumerate(points) if yes}
+    expected_slots = _slots()
+    expected = _one_at_a_time(items, expected_slots, in_line)
+    _loading._LOADS.clear()
+    for _ in range(2):  # worked out, then from memory (a typical floor)
+        slots = _slots()
+        assert _loading.load_masses(items, slots, in_line, Direction.X) == expected
+        assert [(s.weight, s.moment_u, s.moment_v) for s in slots] == [
+            (s.weight, s.moment_u, s.moment_v) for s in expected_slots
+        ]  # bit-identical sums, in item order

@@ -218,16 +218,15 @@ def diaphragm_demands(
     )
     tol = config.analysis.line_tolerance
     shears, chords, collectors = [], [], []
+    by_story: dict[tuple[str, Direction], dict[str, ResistanceLine]] = {}
+    for ln in allocation.lines:
+        by_story.setdefault((ln.level, ln.direction), {})[ln.id] = ln
     for fr in allocation.flexible:
         lv = level_load(allocation, fr.level)
         scale = (
             lv.diaphragm_force / lv.story_force if lv and lv.story_force > 0 else 1.0
         )
-        lines = {
-            ln.id: ln
-            for ln in allocation.lines
-            if ln.level == fr.level and ln.direction is fr.direction
-        }
+        lines = by_story.get((fr.level, fr.direction), {})
         totals: dict[str, float] = defaultdict(float)
         for (lid, dia), (r0, r1) in sorted(_reactions(fr, lines, scale, tol).items()):
             ln = lines[lid]

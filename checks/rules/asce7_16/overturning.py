@@ -20,6 +20,7 @@ from __future__ import annotations
 
 from dataclasses import dataclass
 
+from allocation._records import maker
 from allocation.results import Allocation, PierId
 from checks.findings import Finding, Severity
 from checks.project import ProjectConfig
@@ -56,6 +57,9 @@ class HoldDown:
     tension: float
 
 
+_hold_down = maker(HoldDown)  # HoldDown(...), faster for every pier
+
+
 def hold_down_forces(
     allocation: Allocation, config: ProjectConfig, *, rho: float | None = None
 ) -> dict[PierId, HoldDown]:
@@ -76,18 +80,18 @@ def hold_down_forces(
     f = seismic_factor(config.design_basis)
     kD = counteracting_dead_factor(config.design_basis, config.seismic.SDS)
     out: dict[PierId, HoldDown] = {}
+    units: dict[str, float] = {}  # wall dead load [Pa] per assembly name
     for pier in allocation.piers:
         if pier.direction is None:
             continue
-        assembly = config.assembly(pier.assembly) if pier.assembly else None
-        unit = config.loads.wall
-        if assembly is not None and assembly.properties.wall_dead_load is not None:
-            unit = assembly.properties.wall_dead_load
+        unit = units.get(pier.assembly)
+        if unit is None:
+            unit = units[pier.assembly] = _wall_load(pier.assembly, config)
         L, h = pier.length, pier.height
         D = unit * h * L
         M = f * rho * pier_force(allocation, pier.id) * h
         Mr = kD * D * L / 2.0
-        out[pier.id] = HoldDown(
+        out[pier.id] = _hold_down(
             pier=pier.id,
             overturning_moment=float(M),
             dead_load=float(D),
@@ -96,6 +100,15 @@ def hold_down_forces(
             tension=float(max(0.0, (M - Mr) / L)),
         )
     return out
+
+
+def _wall_load(assembly_name: str, config: ProjectConfig) -> float:
+    """Wall dead load of an assembly, else ``loads.wall`` [Pa]."""
+    assembly = config.assembly(assembly_name) if assembly_name else None
+    unit = config.loads.wall
+    if assembly is not None and assembly.properties.wall_dead_load is not None:
+        unit = assembly.properties.wall_dead_load
+    return unit
 
 
 def check_overturning(
@@ -124,10 +137,12 @@ def check_overturning(
         else hold_down_forces(allocation, config, rho=rho)
     )
     worst: dict[str, tuple[float, str]] = {}
+    counts: dict[str, int] = {}  # piers with net uplift per level
     for pier in allocation.piers:
         h = hd.get(pier.id)
         if h is None or h.tension <= 0.0:
             continue
+        counts[pier.level] = counts.get(pier.level, 0) + 1
         if pier.level not in worst or (h.tension, pier.id) > worst[pier.level]:
             worst[pier.level] = (h.tension, pier.id)
     by_id = {p.id: p for p in allocation.piers}
@@ -135,11 +150,7 @@ def check_overturning(
     findings = []
     for level, (tension, pid) in sorted(worst.items()):
         pier, h = by_id[pid], hd[pid]
-        count = sum(
-            1
-            for p in allocation.piers
-            if p.level == level and p.id in hd and hd[p.id].tension > 0.0
-        )
+        count = counts[level]
         findings.append(
             Finding(
                 rule=RULE,

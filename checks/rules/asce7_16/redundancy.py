@@ -28,7 +28,7 @@ from checks.findings import Finding, Severity
 from checks.project import ProjectConfig
 from checks.rules._support import level_guids
 from checks.rules.asce7_16.seismic_design_category import seismic_design_category
-from checks.rules.asce7_16.unit_shear import pier_capacity
+from checks.rules.asce7_16.unit_shear import _Capacities
 from ifc_bridge.model import BuildingModel, Direction
 
 __all__ = ["Redundancy", "check_redundancy", "evaluate_redundancy"]
@@ -120,11 +120,15 @@ def _extreme_without(
     return any(r.drift_ratio_max > EXTREME_TORSION for r in results)
 
 
-def _strengths(piers: list[Pier], config: ProjectConfig) -> dict[PierId, float]:
-    caps = {p.id: pier_capacity(p, config)[0] for p in piers}
+def _strengths(
+    piers: list[Pier], config: ProjectConfig, capacities: _Capacities | None = None
+) -> dict[PierId, float]:
+    found = capacities or _Capacities(config)
+    lengths = {p.id: p.length for p in piers}
+    caps = {p.id: found.of(p, lengths[p.id])[0] for p in piers}
     if any(c is None for c in caps.values()):
-        return {p.id: p.length for p in piers}
-    return {p.id: caps[p.id] * p.length for p in piers}
+        return lengths
+    return {p.id: caps[p.id] * lengths[p.id] for p in piers}
 
 
 def evaluate_redundancy(
@@ -163,17 +167,18 @@ def evaluate_redundancy(
     V = allocation.seismic.V
     worst: tuple[float, PierId] = (0.0, "")
     torsion_checked = True
+    stories: dict[str, list[Pier]] = {}
+    for p in allocation.piers:
+        if p.direction is not None:
+            stories.setdefault(p.level, []).append(p)
+    capacities = _Capacities(config)
     for lv in allocation.levels:
         if V <= 0 or lv.story_shear <= STORY_SHARE * V:
             continue
-        story = [
-            p
-            for p in allocation.piers
-            if p.level == lv.level and p.direction is not None
-        ]
+        story = stories.get(lv.level, [])
         for d in (Direction.X, Direction.Y):
             own = [p for p in story if p.direction is d]
-            strength = _strengths(own, config)
+            strength = _strengths(own, config, capacities)
             total = sum(strength.values())
             for p in own:
                 if p.aspect_ratio <= 1.0 or total <= 0:

@@ -14,14 +14,17 @@ from __future__ import annotations
 
 import logging
 from collections import defaultdict
+from collections.abc import Mapping
 from dataclasses import dataclass
 
+from allocation._records import maker
 from allocation.parameters import AssemblyKind
 from allocation.results import Allocation, Pier, PierId
 from checks.findings import Finding, Severity
 from checks.project import Assembly, ProjectConfig
 from checks.rules._support import fmt, pier_force
 from checks.rules.asce7_16.load_combinations import combination_clause, seismic_factor
+from checks.rules.asce7_16.overturning import HoldDown
 from checks.rules.sdpws_2015.aspect_ratio import aspect_factor
 from ifc_bridge.model import BuildingModel
 
@@ -67,8 +70,19 @@ class PierCheck:
     hold_down_tension: float | None = None
 
 
+_pier_check = maker(PierCheck)  # PierCheck(...), faster for every pier
+
+
 def _assembly_capacity(
     pier: Pier, assembly: Assembly, config: ProjectConfig
+) -> float | None:
+    return _base_capacity(
+        assembly, config, length=pier.length, height=pier.height, t=pier.thickness
+    )
+
+
+def _base_capacity(
+    assembly: Assembly, config: ProjectConfig, *, length: float, height: float, t: float
 ) -> float | None:
     try:
         from checks.capacity import wall_unit_capacity
@@ -78,12 +92,62 @@ def _assembly_capacity(
         return assembly.unit_shear_capacity
     value = wall_unit_capacity(
         assembly,
-        length=pier.length,
-        height=pier.height,
-        thickness=pier.thickness,
+        length=length,
+        height=height,
+        thickness=t,
         basis=config.design_basis,
     )
     return None if value is None else float(value)
+
+
+class _Capacities:
+    """:func:`pier_capacity` of many piers: assemblies by name, values by geometry.
+
+    The capacity of an assembly depends only on the pier's length, height and
+    thickness, and its aspect factor only on h/b, so each distinct set is worked
+    out once (a tower's typical floors repeat them).
+    """
+
+    __slots__ = ("_assemblies", "_base", "_factor", "config")
+
+    def __init__(self, config: ProjectConfig) -> None:
+        self.config = config
+        self._assemblies: dict[str, Assembly | None] = {}
+        self._base: dict[tuple, float | None] = {}
+        self._factor: dict[tuple[str, float], float] = {}
+
+    def assembly(self, name: str) -> Assembly | None:
+        """``config.assembly(name)``, looked up once per name."""
+        try:
+            return self._assemblies[name]
+        except KeyError:
+            found = self._assemblies[name] = self.config.assembly(name)
+            return found
+
+    def of(self, pier: Pier, length: float) -> tuple[float | None, float]:
+        """:func:`pier_capacity` of ``pier``, whose length is ``length`` [m]."""
+        assembly = self.assembly(pier.assembly) if pier.assembly else None
+        if assembly is None:
+            return None, 1.0
+        ratio = pier.height / length  # Pier.aspect_ratio
+        key = (pier.assembly, ratio)
+        factor = self._factor.get(key)
+        if factor is None:
+            factor = self._factor[key] = aspect_factor(assembly, ratio)
+        geometry = (pier.assembly, length, pier.height, pier.thickness)
+        if geometry in self._base:
+            base = self._base[geometry]
+        else:
+            base = self._base[geometry] = _base_capacity(
+                assembly,
+                self.config,
+                length=length,
+                height=pier.height,
+                t=pier.thickness,
+            )
+        if base is None:
+            return None, factor
+        return float(base) * factor, factor
 
 
 def pier_capacity(pier: Pier, config: ProjectConfig) -> tuple[float | None, float]:
@@ -100,18 +164,15 @@ def pier_capacity(pier: Pier, config: ProjectConfig) -> tuple[float | None, floa
     Returns:
         (capacity [N/m] or None when none is assigned, aspect factor [-]).
     """
-    assembly = config.assembly(pier.assembly) if pier.assembly else None
-    if assembly is None:
-        return None, 1.0
-    factor = aspect_factor(assembly, pier.aspect_ratio)
-    base = _assembly_capacity(pier, assembly, config)
-    if base is None:
-        return None, factor
-    return float(base) * factor, factor
+    return _Capacities(config).of(pier, pier.length)
 
 
 def pier_checks(
-    allocation: Allocation, config: ProjectConfig, *, rho: float | None = None
+    allocation: Allocation,
+    config: ProjectConfig,
+    *,
+    rho: float | None = None,
+    hold_downs: Mapping[PierId, HoldDown] | None = None,
 ) -> dict[PierId, PierCheck]:
     """Demand, capacity and ratio of every allocated pier.
 
@@ -121,28 +182,35 @@ def pier_checks(
         allocation: Piers and their envelope forces [N].
         config: Assemblies, design basis and ``seismic.rho``.
         rho: Redundancy factor [-]; default ``seismic.rho``, else 1.0.
+        hold_downs: Overturning per pier (``tension`` [N]) from the overturning
+            rule, for ``hold_down_tension``; None leaves it None.
 
     Returns:
         Per pier id (piers with a direction only; skewed walls are not allocated).
     """
     rho = _rho(config, rho)
     f = seismic_factor(config.design_basis)
+    caps = _Capacities(config)
+    holds = hold_downs or {}
     out: dict[PierId, PierCheck] = {}
     for pier in allocation.piers:
         if pier.direction is None:
             continue
         force = pier_force(allocation, pier.id)
-        v = f * rho * force / pier.length
-        capacity, factor = pier_capacity(pier, config)
+        length = pier.length
+        v = f * rho * force / length
+        capacity, factor = caps.of(pier, length)
         dcr = v / capacity if capacity else None
-        out[pier.id] = PierCheck(
+        hold = holds.get(pier.id)
+        out[pier.id] = _pier_check(
             pier=pier.id,
             force=force,
             unit_shear=float(v),
             capacity=capacity,
             dcr=None if dcr is None else float(dcr),
-            aspect_ratio=float(pier.aspect_ratio),
+            aspect_ratio=float(pier.height / length),  # Pier.aspect_ratio
             aspect_factor=float(factor),
+            hold_down_tension=None if hold is None else hold.tension,
         )
     return out
 
@@ -159,6 +227,7 @@ def check_unit_shear(
     *,
     model: BuildingModel | None = None,
     rho: float | None = None,
+    checks: Mapping[PierId, PierCheck] | None = None,
 ) -> list[Finding]:
     """Findings for piers over (or near) capacity, or with no capacity at all.
 
@@ -170,11 +239,13 @@ def check_unit_shear(
         config: Assemblies, design basis.
         model: The model, to name a wall's IFC type in the "no capacity" finding.
         rho: Redundancy factor [-]; default ``seismic.rho``, else 1.0 (stated).
+        checks: Precomputed :func:`pier_checks` with the same ``rho``, or None.
 
     Returns:
         The findings, unsorted.
     """
-    checks = pier_checks(allocation, config, rho=rho)
+    if checks is None:
+        checks = pier_checks(allocation, config, rho=rho)
     rho_note = _rho_note(config, rho)
     findings: list[Finding] = []
     missing: dict[tuple[str, str], list[Pier]] = defaultdict(list)

@@ -8,7 +8,12 @@ from __future__ import annotations
 
 import math
 from collections import defaultdict
+from collections.abc import Sequence
+from operator import attrgetter
 
+import numpy as np
+
+from allocation._columns import segments
 from checks.findings import Finding, Severity
 from ifc_bridge.model import BuildingModel, WallSegment
 
@@ -42,6 +47,75 @@ def overlap_fraction(a: WallSegment, b: WallSegment) -> float:
     return max(0.0, common) / min(a.length, b.length)
 
 
+_ENDS, _STOREY = attrgetter("start", "end"), attrgetter("storey")
+_NEAR = [(dx, dy) for dx in (-1, 0, 1) for dy in (-1, 0, 1)]  # the cell's 3 x 3 block
+_CODABLE = 2.0**40  # [m] mid-points beyond this are grouped without int64 cell codes
+
+
+def _cells_by_dict(
+    walls: Sequence[WallSegment],
+) -> list[tuple[list[WallSegment], list[WallSegment]]]:
+    """(walls of the cell, walls of its 3 x 3 block) per cell, in order of use."""
+    cells: dict[tuple[str, int, int], list[WallSegment]] = defaultdict(list)
+    for w in walls:  # 1 m grid of mid-points; duplicates fall in adjacent cells
+        cells[(w.storey, round(w.midpoint[0]), round(w.midpoint[1]))].append(w)
+    return [
+        (
+            group,
+            [b for dx, dy in _NEAR for b in cells.get((storey, cx + dx, cy + dy), ())],
+        )
+        for (storey, cx, cy), group in cells.items()
+    ]
+
+
+def _cells(
+    walls: Sequence[WallSegment],
+) -> list[tuple[list[WallSegment], list[WallSegment]]]:
+    """:func:`_cells_by_dict` of the cells that can hold a pair, found with arrays.
+
+    A cell with one wall and no used neighbour cell is left out (its one pair is
+    the wall with itself). Cells keep their order of first use, walls their order.
+    """
+    if not walls:
+        return []
+    storeys: dict[str, int] = {}
+    s = np.fromiter(
+        (storeys.setdefault(name, len(storeys)) for name in map(_STOREY, walls)),
+        dtype=np.int64,
+        count=len(walls),
+    )
+    ends = segments(map(_ENDS, walls), len(walls))
+    mid = np.round((ends[:, 0] + ends[:, 1]) / 2.0)  # round(): half to even
+    if not np.isfinite(mid).all() or np.abs(mid).max() > _CODABLE:
+        return _cells_by_dict(walls)
+    c = mid.astype(np.int64)
+    lo, span = int(c.min()) - 1, int(c.max() - c.min()) + 3
+    code = (s * span + (c[:, 0] - lo)) * span + (c[:, 1] - lo)
+    cells, first, where, count = np.unique(
+        code, return_index=True, return_inverse=True, return_counts=True
+    )
+    members = np.argsort(where, kind="stable")  # wall indices, cell by cell
+    start = np.concatenate(([0], np.cumsum(count)[:-1]))
+    near = []
+    for dx, dy in _NEAR:
+        probe = cells + dx * span + dy
+        at = np.minimum(np.searchsorted(cells, probe), len(cells) - 1)
+        near.append(np.where(cells[at] == probe, at, -1))
+    block = np.stack(near, axis=1)  # per cell: the 9 cells of its block, or -1
+    crowded = (count > 1) | ((block >= 0).sum(axis=1) > 1)
+    out = []
+    for u in np.argsort(first, kind="stable")[crowded[np.argsort(first)]].tolist():
+        group = [walls[i] for i in members[start[u] : start[u] + count[u]].tolist()]
+        block_walls = [
+            walls[i]
+            for v in block[u].tolist()
+            if v >= 0
+            for i in members[start[v] : start[v] + count[v]].tolist()
+        ]
+        out.append((group, block_walls))
+    return out
+
+
 def check_duplicate_walls(model: BuildingModel) -> list[Finding]:
     """A warning for each pair of distinct walls of one storey in the same place.
 
@@ -51,17 +125,8 @@ def check_duplicate_walls(model: BuildingModel) -> list[Finding]:
     Returns:
         One finding per duplicated pair, naming both GlobalIds.
     """
-    cells: dict[tuple[str, int, int], list[WallSegment]] = defaultdict(list)
-    for w in model.walls:  # 1 m grid of mid-points; duplicates fall in adjacent cells
-        cells[(w.storey, round(w.midpoint[0]), round(w.midpoint[1]))].append(w)
     out: dict[str, Finding] = {}
-    for (storey, cx, cy), walls in cells.items():
-        near = [
-            b
-            for dx in (-1, 0, 1)
-            for dy in (-1, 0, 1)
-            for b in cells.get((storey, cx + dx, cy + dy), ())
-        ]
+    for walls, near in _cells(model.walls):
         for a in walls:
             for b in near:
                 if a.guid >= b.guid or overlap_fraction(a, b) < _OVERLAP:

@@ -84,13 +84,21 @@ def check_aspect_ratio(allocation: Allocation, config: ProjectConfig) -> list[Fi
         One finding per pier over the limit.
     """
     findings = []
+    limits: dict[str, tuple[Assembly | None, float | None]] = {}
     for pier in allocation.piers:
-        assembly = config.assembly(pier.assembly) if pier.assembly else None
-        if assembly is None:
+        if not pier.assembly:
             continue
-        limit = aspect_ratio_limit(assembly)
+        if pier.assembly not in limits:
+            found = config.assembly(pier.assembly)
+            limits[pier.assembly] = (
+                found,
+                None if found is None else aspect_ratio_limit(found),
+            )
+        assembly, limit = limits[pier.assembly]
+        if assembly is None or limit is None:
+            continue
         ratio = pier.aspect_ratio
-        if limit is None or ratio <= limit + 1e-9:
+        if ratio <= limit + 1e-9:
             continue
         d = pier.direction.value if pier.direction else "-"
         findings.append(

@@ -42,3 +42,22 @@ def test_copy_is_reported_once_with_both_guids():
 def test_same_place_other_storey_is_not_a_duplicate():
     assert check_duplicate_walls(_model(_wall("A", (0, 0), (6, 0)),
                                         _wall("B", (0, 0), (6, 0), storey="L2"))) == []
+
+
+def test_cells_found_with_arrays_give_the_findings_of_the_plain_grid(monkeypatch):
+    # far from the origin, several storeys, copies a little off: the array grouping
+    # (cells that can hold a pair) finds what the dictionary of every cell finds
+    from checks.rules.model import duplicate_walls
+
+    x0, y0 = -51234.6, 7777.5
+    walls = []
+    for storey in ("L1", "L2"):
+        for i in range(6):
+            walls.append(_wall(f"{storey}{i}", (x0, y0 + 2 * i), (x0 + 6, y0 + 2 * i), storey))
+        walls.append(_wall(f"{storey}c", (x0 + 0.7, y0 + 4.04), (x0 + 6.7, y0 + 4.04), storey))
+    walls.append(_wall("L1y", (x0 + 3, y0 - 3), (x0 + 3, y0 + 3), "L1"))
+    model = _model(*walls)
+    found = check_duplicate_walls(model)
+    assert sorted(f.guids for f in found) == [("L12", "L1c"), ("L22", "L2c")]
+    monkeypatch.setattr(duplicate_walls, "_CODABLE", 1.0)  # every cell, by dictionary
+    assert check_duplicate_walls(model) == found

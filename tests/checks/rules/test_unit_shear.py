@@ -2,6 +2,7 @@
 
 from __future__ import annotations
 
+import dataclasses
 import random
 
 import pytest
@@ -151,3 +152,26 @@ def test_demand_equilibrium_and_order_independence(force, length, seed):
     a = sorted(check_unit_shear(allocation(piers, forces), cfg), key=lambda f: f.id)
     b = sorted(check_unit_shear(allocation(shuffled, forces), cfg), key=lambda f: f.id)
     assert a == b
+
+
+def test_precomputed_checks_and_hold_downs_give_the_same_results():
+    # the run passes pier_checks (with hold-down tensions) on; the findings and the
+    # numbers are those computed afresh (the same record, not a recomputation)
+    from checks.rules.asce7_16.overturning import hold_down_forces
+
+    piers = [
+        pier(f"g{i}", start=(0.0, 3.0 * i), end=(0.5 + i, 3.0 * i)) for i in range(5)
+    ]
+    forces = {p.id: 3e3 * (i + 1) for i, p in enumerate(piers)}
+    alloc, cfg = allocation(piers, forces), config(assemblies=(assembly(),))
+    holds = hold_down_forces(alloc, cfg)
+    plain = pier_checks(alloc, cfg)
+    with_holds = pier_checks(alloc, cfg, hold_downs=holds)
+    for pid, c in plain.items():
+        assert with_holds[pid] == dataclasses.replace(
+            c, hold_down_tension=holds[pid].tension
+        )
+    assert check_unit_shear(alloc, cfg, checks=with_holds) == check_unit_shear(
+        alloc, cfg
+    )
+    assert pier_capacity(piers[0], cfg) == (plain[piers[0].id].capacity, 0.0)  # h/b 5

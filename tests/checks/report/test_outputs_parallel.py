@@ -1,0 +1,106 @@
+"""Writing the report in a forked worker gives the same files as writing it here.
+
+Common practice: moving ``report.html`` into a worker process (``os.fork``, POSIX)
+must change no byte of any output, a failed worker must leave the serial result, and
+an output that cannot be written is one clear error with no half-written file left.
+"""
+
+from __future__ import annotations
+
+import json
+import os
+from pathlib import Path
+
+import pytest
+
+from checks import outputs
+from checks.errors import OutputError
+from checks.project import DisplayUnits
+from ifc_bridge import worker
+from tests.checks.report._demo_run import demo_run
+
+needs_fork = pytest.mark.skipif(not hasattr(os, "fork"), reason="os.fork is POSIX")
+_SAME_BYTES = ("results.json", "walls.csv", "lines.csv", "report.html")
+
+
+def _write(out: Path, *, parallel: bool) -> dict[str, Path]:
+    out.mkdir(parents=True, exist_ok=True)
+    return outputs.write_all(
+        demo_run(),
+        out,
+        previous=None,
+        annotate=False,
+        bcf_version="2.1",
+        system=DisplayUnits.IMPERIAL,
+        parallel=parallel,
+    )
+
+
+def _undated_topics(path: Path) -> list:
+    topics = json.loads(path.read_text(encoding="utf-8"))["topics"]
+    for t in topics:  # the creation date is the clock's
+        t["topic"].pop("creation_date")
+    return topics
+
+
+def _spy(monkeypatch) -> list[str]:
+    started: list[str] = []
+    real_start = worker.start_call
+
+    def spy(name, *args, **kwargs):
+        pending = real_start(name, *args, **kwargs)
+        if pending.pid:
+            started.append(name)
+        return pending
+
+    monkeypatch.setattr(worker, "start_call", spy)
+    return started
+
+
+@needs_fork
+def test_forked_report_gives_the_same_files(tmp_path, monkeypatch):
+    serial = _write(tmp_path / "serial", parallel=False)
+    started = _spy(monkeypatch)
+    forked = _write(tmp_path / "forked", parallel=True)
+    assert started == ["report"]  # really written by a worker
+    assert list(forked) == list(serial)  # same kinds, same order
+    for name in _SAME_BYTES:
+        assert (tmp_path / "forked" / name).read_bytes() == (
+            tmp_path / "serial" / name
+        ).read_bytes(), name
+    assert _undated_topics(forked["findings"]) == _undated_topics(serial["findings"])
+    assert sorted(p.name for p in (tmp_path / "forked").iterdir()) == sorted(
+        p.name for p in (tmp_path / "serial").iterdir()
+    )  # no .part file left behind
+
+
+@needs_fork
+def test_a_failed_worker_leaves_the_serial_report(tmp_path, monkeypatch):
+    parent, real = os.getpid(), outputs._write_report
+
+    def fails_in_the_worker(path, run, system):
+        if os.getpid() != parent:
+            msg = "worker failure for the test"
+            raise RuntimeError(msg)
+        return real(path, run, system)
+
+    monkeypatch.setattr(outputs, "_write_report", fails_in_the_worker)
+    _write(tmp_path / "serial", parallel=False)
+    written = _write(tmp_path / "forked", parallel=True)
+    assert (
+        written["report"].read_bytes()
+        == (tmp_path / "serial" / "report.html").read_bytes()
+    )
+
+
+@pytest.mark.parametrize(
+    "parallel", [False, pytest.param(True, marks=needs_fork)], ids=["here", "worker"]
+)
+def test_a_report_that_cannot_be_written_is_one_error(tmp_path, parallel):
+    out = tmp_path / "out"
+    (out / "report.html").mkdir(parents=True)  # a folder where the file should go
+    with pytest.raises(OutputError) as err:
+        _write(out, parallel=parallel)
+    assert "\n" not in str(err.value)
+    assert str(out) in str(err.value)
+    assert not (out / "report.html.part").exists()
