@@ -34,6 +34,7 @@ __all__ = [
     "Contribution",
     "LoadPathGraphs",
     "build_load_path",
+    "explain_all",
     "explain_pier",
     "level_totals",
 ]
@@ -215,8 +216,37 @@ def explain_pier(graph: nx.DiGraph, pier_id: PierId) -> list[Contribution]:
         msg = f"pier {pier_id} is not in the load-path graph"
         raise AllocationError(msg)
     nodes = nx.ancestors(graph, target) | {target}
+    comp = _compose(graph, nx.topological_sort(graph.subgraph(nodes)))
+    return _contributions(graph, comp[target])
+
+
+def explain_all(graph: nx.DiGraph) -> dict[PierId, list[Contribution]]:
+    """:func:`explain_pier` of every pier of the graph, in one topological pass.
+
+    Common practice: as :func:`explain_pier` (each node's flows depend only on its
+    ancestors, so one pass over the whole graph gives every pier the same numbers,
+    bit for bit, as tracing it alone).
+
+    Args:
+        graph: A graph from :func:`build_load_path`.
+
+    Returns:
+        Pier id -> its contributions, as :func:`explain_pier` returns them.
+    """
+    import networkx as nx
+
+    comp = _compose(graph, nx.topological_sort(graph))
+    return {
+        n.split(":", 1)[1]: _contributions(graph, comp[n])
+        for n, data in graph.nodes(data=True)
+        if data["kind"] == "pier"
+    }
+
+
+def _compose(graph: nx.DiGraph, order) -> dict[str, dict[str, float]]:
+    """Node -> source node -> force reaching it, over nodes in topological order."""
     comp: dict[str, dict[str, float]] = {}
-    for n in nx.topological_sort(graph.subgraph(nodes)):
+    for n in order:
         data = graph.nodes[n]
         if data["kind"] in ("piece", "mass"):
             comp[n] = {n: float(data["force"])}
@@ -227,8 +257,12 @@ def explain_pier(graph: nx.DiGraph, pier_id: PierId) -> list[Contribution]:
             for src, f in comp[p].items():
                 acc[src] = acc.get(src, 0.0) + s * f
         comp[n] = acc
+    return comp
+
+
+def _contributions(graph: nx.DiGraph, flows: dict[str, float]) -> list[Contribution]:
     out = []
-    for src, f in comp[target].items():
+    for src, f in flows.items():
         data = graph.nodes[src]
         name = src.split(":", 1)[1] if data["kind"] == "piece" else src
         out.append(

@@ -10,8 +10,7 @@ from dataclasses import dataclass, field
 from html import escape
 
 from allocation.asce7_16 import s12_8_elf
-from allocation.errors import AllocationError
-from allocation.load_path import explain_pier, level_totals
+from allocation.load_path import explain_all, level_totals
 from checks.project import DisplayUnits
 from checks.report._formats import Formats
 from checks.units import format_value
@@ -157,7 +156,7 @@ class LoadPaths:
     Common practice (DESIGN.md item 10): the load path from
     :func:`allocation.load_path.level_totals`, computed once per graph (one pass for
     all piers) and, on graphs small enough to list every source,
-    :func:`allocation.load_path.explain_pier`.
+    :func:`allocation.load_path.explain_all`.
 
     Attributes:
         graphs: ``Allocation.graphs`` (load-path graph per direction).
@@ -167,11 +166,18 @@ class LoadPaths:
     graphs: Mapping
     fm: Formats
     _totals: dict = field(default_factory=dict)
+    _explained: dict = field(default_factory=dict)
 
     def _totals_of(self, direction, graph) -> dict:
         hit = self._totals.get(direction)
         if hit is None:
             hit = self._totals[direction] = level_totals(graph)
+        return hit
+
+    def _explained_of(self, direction, graph) -> dict:
+        hit = self._explained.get(direction)
+        if hit is None:
+            hit = self._explained[direction] = explain_all(graph)
         return hit
 
     def cell(self, pier) -> str:
@@ -187,9 +193,8 @@ class LoadPaths:
         head = "; ".join([f"{esc(lv)} {f(v)}" for lv, v in sorted(by_level.items())])
         if graph.number_of_nodes() > _DETAIL_NODES:
             return f"<span>{head}</span>"
-        try:
-            parts = explain_pier(graph, pier.id)
-        except AllocationError:
+        parts = self._explained_of(direction, graph).get(pier.id)
+        if parts is None:
             return f"<span>{head}</span>"
         items = "".join(
             f"<li>{esc(c.level)}: {_source(c.source)}, share {c.share:.3f} → "

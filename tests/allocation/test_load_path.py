@@ -198,3 +198,21 @@ def test_level_totals_agree_with_explain_pier_on_the_demo():  # same flow, summe
             assert by_level.keys() == expected.keys()
             for lv, f in expected.items():
                 assert by_level[lv] == pytest.approx(f, rel=1e-9, abs=1e-9)
+
+
+def test_explain_all_equals_explaining_each_pier_alone() -> None:
+    # common practice: a node's flows depend only on its ancestors, so one pass over
+    # the whole graph must give each pier exactly (bit for bit) its own trace
+    from pathlib import Path
+
+    from allocation.load_path import explain_all
+    from checks.pipeline import check_model
+
+    demo = Path(__file__).resolve().parents[2] / "sample_models"
+    run = check_model(demo / "demo_building.ifc", demo / "demo.toml")
+    for direction, graph in run.allocation.graphs.items():
+        every = explain_all(graph)
+        piers = [n.split(":", 1)[1] for n in graph if n.startswith("pier:")]
+        assert sorted(every) == sorted(piers), direction
+        for pier in piers:
+            assert every[pier] == explain_pier(graph, pier)
