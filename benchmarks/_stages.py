@@ -32,7 +32,7 @@ def main(model: str, config: str, out: str) -> None:
     workers = resource.getrusage(resource.RUSAGE_CHILDREN)
     json.dump(
         {
-            "import": t_import - t0,
+            "import": t_import - t0 + stages["import"],
             "read": stages["open"] + stages["read"],
             "allocate": stages["allocate"],
             "check": stages["check"] + stages["requirements"],

@@ -144,8 +144,8 @@ def check_model(
         config: A :class:`ProjectConfig` or the path of its TOML file.
         progress: Optional ``progress(stage, done, total)`` callback.
         timings: When given, filled with the wall-clock seconds of each stage
-            (``open``, ``read``, ``allocate``, ``check``, ``requirements``: the
-            wait for the IDS worker).
+            (``import``: the modules it loads on first use, ``open``, ``read``,
+            ``allocate``, ``check``, ``requirements``: the wait for the IDS worker).
 
     Returns:
         The model, forces and findings.
@@ -155,14 +155,15 @@ def check_model(
         ConfigError: The config is wrong or names a storey the model lacks.
         AllocationError: The forces cannot be computed.
     """
+    clock = _Stopwatch(timings)
     from allocation.allocate import allocate
     from checks.rules.run_rules import run_checks
     from ifc_bridge.gc_pause import collection_paused
     from ifc_bridge.open_file import open_ifc
     from ifc_bridge.worker import PARALLEL_MIN, can_fork, start_call
 
+    clock.lap("import")
     with collection_paused():
-        clock = _Stopwatch(timings)
         cfg = _config(config)
         ifc = open_ifc(model_path)
         _check_unique_guids(ifc, str(model_path))
