@@ -243,13 +243,18 @@ def explain_all(graph: nx.DiGraph) -> dict[PierId, list[Contribution]]:
     }
 
 
-def _compose(graph: nx.DiGraph, order) -> dict[str, dict[str, float]]:
-    """Node -> source node -> force reaching it, over nodes in topological order."""
+def _compose(
+    graph: nx.DiGraph, order, by_level: bool = False
+) -> dict[str, dict[str, float]]:
+    """Node -> source -> force reaching it, over nodes in topological order.
+
+    A source is the piece or mass node, or with ``by_level`` its level's name.
+    """
     comp: dict[str, dict[str, float]] = {}
     for n in order:
         data = graph.nodes[n]
         if data["kind"] in ("piece", "mass"):
-            comp[n] = {n: float(data["force"])}
+            comp[n] = {(data["level"] if by_level else n): float(data["force"])}
             continue
         acc: dict[str, float] = {}
         for p in graph.predecessors(n):
@@ -292,19 +297,7 @@ def level_totals(graph: nx.DiGraph) -> dict[PierId, dict[str, float]]:
     """
     import networkx as nx
 
-    comp: dict[str, dict[str, float]] = {}
-    out: dict[PierId, dict[str, float]] = {}
-    for n in nx.topological_sort(graph):
-        data = graph.nodes[n]
-        if data["kind"] in ("piece", "mass"):
-            comp[n] = {data["level"]: float(data["force"])}
-            continue
-        acc: dict[str, float] = {}
-        for p in graph.predecessors(n):
-            s = graph.edges[p, n]["share"]
-            for lv, f in comp[p].items():
-                acc[lv] = acc.get(lv, 0.0) + s * f
-        comp[n] = acc
-        if data["kind"] == "pier":
-            out[n.split(":", 1)[1]] = acc
-    return out
+    comp = _compose(graph, nx.topological_sort(graph), by_level=True)
+    return {
+        n.split(":", 1)[1]: comp[n] for n in comp if graph.nodes[n]["kind"] == "pier"
+    }
