@@ -273,6 +273,8 @@ def format_value(
     rounded = float(f"{value:.{digits}g}")  # 9.9999999 -> 10.0 before counting digits
     if rounded == 0:
         return f"0 {label}"
+    if not math.isfinite(rounded):  # within a rounding step of the largest float
+        return f"{value:.{digits}g} {label}"
     decimals = min(12, max(0, digits - 1 - math.floor(math.log10(abs(rounded)))))
     text = f"{value:.{decimals}f}"
     if text.lstrip("-").strip("0.") == "":

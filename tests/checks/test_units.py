@@ -141,6 +141,14 @@ def test_format_value(value_si, quantity, system, expected):
     assert format_value(value_si, quantity, system) == expected
 
 
+def test_format_value_near_the_largest_float_gives_text_not_an_error():
+    # IEEE 754 binary64: the largest finite value rounds to 1.80e308 at three
+    # figures, which is past it (inf); the text stays finite and readable
+    assert format_value(1.7976931348623157e308, "length", DisplayUnits.SI) == (
+        "1.8e+308 m"
+    )
+
+
 def test_to_display_returns_python_float_and_label():
     value, label = to_display(4448.2216152605, "force", DisplayUnits.IMPERIAL)
     assert type(value) is float
