@@ -25,3 +25,23 @@ def sample_path(name: str) -> Path:
     if not path.is_file():
         pytest.skip(f"open IFC sample model {name} not found in {IFC_SAMPLES}")
     return path
+
+
+@pytest.fixture
+def forked_calls(monkeypatch) -> list[str]:
+    """Names of the worker calls (ifc_bridge.worker) that really forked in the test."""
+    import ifc_bridge._geometry as geometry
+    from ifc_bridge import worker
+
+    started: list[str] = []
+    real_start = worker.start_call
+
+    def spy(name, *args, **kwargs):
+        pending = real_start(name, *args, **kwargs)
+        if pending.pid:
+            started.append(name)
+        return pending
+
+    monkeypatch.setattr(worker, "start_call", spy)
+    monkeypatch.setattr(geometry, "start_call", spy)  # imported by name there
+    return started

@@ -20,7 +20,7 @@ CONFIG = SAMPLE_MODELS / "demo.toml"
 
 
 @pytest.mark.skipif(not hasattr(os, "fork"), reason="os.fork is POSIX only")
-def test_workers_change_no_finding_and_no_force(monkeypatch) -> None:
+def test_workers_change_no_finding_and_no_force(monkeypatch, forked_calls) -> None:
     monkeypatch.setenv("SHEARLINE_WORKERS", "0")
     serial = check_model(DEMO, CONFIG)
     monkeypatch.delenv("SHEARLINE_WORKERS")
@@ -28,20 +28,9 @@ def test_workers_change_no_finding_and_no_force(monkeypatch) -> None:
     monkeypatch.setattr(geometry, "PARALLEL_MIN", 0)
     monkeypatch.setattr(worker, "_usable_cpus", lambda: 2)
     monkeypatch.setattr(worker.sys, "platform", "linux")
-    started: list[str] = []
-    real_start = worker.start_call
-
-    def spy(name, *args, **kwargs):
-        pending = real_start(name, *args, **kwargs)
-        if pending.pid:
-            started.append(name)
-        return pending
-
-    monkeypatch.setattr(worker, "start_call", spy)
-    monkeypatch.setattr(geometry, "start_call", spy)
     timings: dict[str, float] = {}
     forked = check_model(DEMO, CONFIG, timings=timings)
-    assert sorted(started) == ["geometry", "requirements"]  # both really forked
+    assert sorted(forked_calls) == ["geometry", "requirements"]  # both really forked
     assert forked.model == serial.model
     assert forked.requirement_findings == serial.requirement_findings
     assert forked.findings == serial.findings

@@ -16,7 +16,6 @@ import pytest
 from checks import outputs
 from checks.errors import OutputError
 from checks.project import DisplayUnits
-from ifc_bridge import worker
 from tests.checks.report._demo_run import demo_run
 
 needs_fork = pytest.mark.skipif(not hasattr(os, "fork"), reason="os.fork is POSIX")
@@ -43,24 +42,10 @@ def _undated_topics(path: Path) -> list:
     return topics
 
 
-def _spy(monkeypatch) -> list[str]:
-    started: list[str] = []
-    real_start = worker.start_call
-
-    def spy(name, *args, **kwargs):
-        pending = real_start(name, *args, **kwargs)
-        if pending.pid:
-            started.append(name)
-        return pending
-
-    monkeypatch.setattr(worker, "start_call", spy)
-    return started
-
-
 @needs_fork
-def test_forked_report_gives_the_same_files(tmp_path, monkeypatch):
+def test_forked_report_gives_the_same_files(tmp_path, forked_calls):
     serial = _write(tmp_path / "serial", parallel=False)
-    started = _spy(monkeypatch)
+    started = forked_calls
     forked = _write(tmp_path / "forked", parallel=True)
     assert started == ["report"]  # really written by a worker
     assert list(forked) == list(serial)  # same kinds, same order
