@@ -14,6 +14,7 @@ import os
 os.environ.setdefault("OPENBLAS_NUM_THREADS", "1")
 
 import argparse
+import logging
 import sys
 from collections.abc import Sequence
 from pathlib import Path
@@ -23,7 +24,7 @@ from checks.errors import CheckError
 from ifc_bridge.errors import IfcBridgeError
 from ifc_bridge.model import ModelError
 
-__all__ = ["main"]
+__all__ = ["main", "run"]
 
 _ERRORS = (IfcBridgeError, CheckError, AllocationError, ModelError)
 
@@ -135,5 +136,19 @@ def main(argv: Sequence[str] | None = None) -> int:
         return 2
 
 
+def run() -> None:
+    """Entry point of the installed ``shearline`` command: :func:`main`, then exit.
+
+    Every output is written and closed when :func:`main` returns, so the process
+    leaves without the interpreter's teardown (freeing a large parsed IFC file
+    object by object took 0.5 s on the 10,000-wall benchmark).
+    """
+    code = main()
+    sys.stdout.flush()
+    sys.stderr.flush()
+    logging.shutdown()
+    os._exit(code)
+
+
 if __name__ == "__main__":
-    sys.exit(main())
+    run()

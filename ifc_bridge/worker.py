@@ -25,7 +25,7 @@ from collections.abc import Callable
 from dataclasses import dataclass, field
 from typing import Any, Generic, TypeVar
 
-__all__ = ["PARALLEL_MIN", "PendingCall", "can_fork", "start_call"]
+__all__ = ["PARALLEL_MIN", "PendingCall", "can_fork", "start_call", "usable_cpus"]
 
 _LOG = logging.getLogger(__name__)
 
@@ -36,7 +36,8 @@ T = TypeVar("T")
 PARALLEL_MIN = 500
 
 
-def _usable_cpus() -> int:
+def usable_cpus() -> int:
+    """Cores this process may run on."""
     try:
         return len(os.sched_getaffinity(0))
     except AttributeError:  # not on Linux
@@ -49,7 +50,7 @@ def can_fork() -> bool:
         return False
     # fork is safe with the libraries here on Linux; macOS system frameworks are not
     # fork-safe (Python itself stopped forking there by default), Windows has none
-    return sys.platform.startswith("linux") and _usable_cpus() >= 2
+    return sys.platform.startswith("linux") and usable_cpus() >= 2
 
 
 @dataclass(slots=True, kw_only=True)

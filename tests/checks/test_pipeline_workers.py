@@ -26,11 +26,12 @@ def test_workers_change_no_finding_and_no_force(monkeypatch, forked_calls) -> No
     monkeypatch.delenv("SHEARLINE_WORKERS")
     monkeypatch.setattr(worker, "PARALLEL_MIN", 0)  # the demo is small: force them
     monkeypatch.setattr(geometry, "PARALLEL_MIN", 0)
-    monkeypatch.setattr(worker, "_usable_cpus", lambda: 2)
+    monkeypatch.setattr(worker, "usable_cpus", lambda: 2)
     monkeypatch.setattr(worker.sys, "platform", "linux")
     timings: dict[str, float] = {}
     forked = check_model(DEMO, CONFIG, timings=timings)
-    assert sorted(forked_calls) == ["geometry", "requirements"]  # both really forked
+    # two geometry workers (two cores) and the IDS worker really forked
+    assert sorted(forked_calls) == ["geometry", "geometry", "requirements"]
     assert forked.model == serial.model
     assert forked.requirement_findings == serial.requirement_findings
     assert forked.findings == serial.findings

@@ -123,5 +123,5 @@ def test_model_read_with_workers_equals_the_one_process_read(
     serial = read_model(path)
     monkeypatch.delenv("SHEARLINE_WORKERS")
     monkeypatch.setattr(geometry, "PARALLEL_MIN", 0)
-    monkeypatch.setattr(worker, "_usable_cpus", lambda: 2)
+    monkeypatch.setattr(worker, "usable_cpus", lambda: 2)
     assert read_model(path) == serial
