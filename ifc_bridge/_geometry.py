@@ -79,13 +79,57 @@ def _settings() -> ifcopenshell.geom.settings:
     return s
 
 
-def _to_mesh(geometry: object, kernel: str) -> Mesh | None:
-    # buffers are far faster than the tuple properties (ifcopenshell.util.shape)
-    verts = np.frombuffer(geometry.verts_buffer, dtype=np.float64).reshape(-1, 3).copy()
-    faces = np.frombuffer(geometry.faces_buffer, dtype=np.int32).reshape(-1, 3)
-    if len(verts) == 0 or not np.isfinite(verts).all():
-        return None
-    return Mesh(verts=verts, faces=faces.astype(np.int64), kernel=kernel)
+def _valid(verts: NDArray[np.float64]) -> bool:
+    return len(verts) > 0 and bool(np.isfinite(verts).all())
+
+
+class _Batch:
+    """Meshes gathered as raw kernel buffers, joined into flat arrays once at the end.
+
+    A per-shape numpy array costs more than the kernel's own work on a small wall;
+    the buffers are joined and checked in a few vectorised calls instead.
+    """
+
+    __slots__ = ("faces", "ids", "kernels", "seen", "verts")
+
+    def __init__(self) -> None:
+        self.ids: list[int] = []
+        self.kernels: list[str] = []
+        self.verts: list[bytes] = []
+        self.faces: list[bytes] = []
+        self.seen: set[int] = set()
+
+    def add(self, key: int, verts: bytes, faces: bytes, kernel: str) -> None:
+        if key in self.seen:
+            return
+        self.seen.add(key)
+        self.ids.append(key)
+        self.kernels.append(kernel)
+        self.verts.append(verts)
+        self.faces.append(faces)
+
+    def packed(self) -> dict:
+        """Flat arrays (pickle fast: no per-mesh objects); invalid bodies dropped."""
+        nv = np.fromiter((len(b) // 24 for b in self.verts), np.int64, len(self.ids))
+        nf = np.fromiter((len(b) // 12 for b in self.faces), np.int64, len(self.ids))
+        verts = np.frombuffer(b"".join(self.verts), dtype=np.float64).reshape(-1, 3)
+        faces = np.frombuffer(b"".join(self.faces), dtype=np.int32).reshape(-1, 3)
+        owner = np.repeat(np.arange(len(nv)), nv)
+        bad = np.bincount(owner[~np.isfinite(verts).all(axis=1)], minlength=len(nv))
+        keep = (nv > 0) & (bad == 0)
+        if not keep.all():
+            vkeep = np.repeat(keep, nv)
+            fkeep = np.repeat(keep, nf)
+            verts, faces, nv, nf = verts[vkeep], faces[fkeep], nv[keep], nf[keep]
+        kernels = [k for k, ok in zip(self.kernels, keep.tolist(), strict=True) if ok]
+        return {
+            "ids": np.asarray(self.ids, dtype=np.int64)[keep],
+            "kernels": kernels,
+            "nv": nv,
+            "nf": nf,
+            "verts": verts,
+            "faces": faces,
+        }
 
 
 def _run_iterator(
@@ -93,24 +137,25 @@ def _run_iterator(
     elements: Sequence[ifcopenshell.entity_instance],
     kernel: str,
     progress: Progress | None,
-) -> dict[int, Mesh]:
-    out: dict[int, Mesh] = {}
+    batch: _Batch,
+) -> None:
     it = ifcopenshell.geom.iterator(
         _settings(), ifc, 1, include=list(elements), geometry_library=kernel
     )
     total = len(elements)
     if not it.initialize():
-        return out
+        return
+    done = 0
     while True:
         shape = it.get()
-        mesh = _to_mesh(shape.geometry, kernel)
-        if mesh is not None and shape.id not in out:
-            out[shape.id] = mesh
-        if progress is not None and len(out) % 200 == 0:
-            progress("geometry", len(out), total)
+        geometry = shape.geometry
+        # buffers are far faster than the tuple properties (ifcopenshell.util.shape)
+        batch.add(shape.id, geometry.verts_buffer, geometry.faces_buffer, kernel)
+        done += 1
+        if progress is not None and done % 200 == 0:
+            progress("geometry", done, total)
         if not it.next():
             break
-    return out
 
 
 def _mesh_one(element: ifcopenshell.entity_instance, kernel: str) -> Mesh | None:
@@ -122,7 +167,69 @@ def _mesh_one(element: ifcopenshell.entity_instance, kernel: str) -> Mesh | None
         _LOG.debug("%s: %s failed: %s", element.GlobalId, kernel, exc)
         return None
     geometry = getattr(shape, "geometry", shape)
-    return _to_mesh(geometry, kernel)
+    verts = np.frombuffer(geometry.verts_buffer, dtype=np.float64).reshape(-1, 3)
+    faces = np.frombuffer(geometry.faces_buffer, dtype=np.int32).reshape(-1, 3)
+    if not _valid(verts):
+        return None
+    return Mesh(verts=verts.copy(), faces=faces.astype(np.int64), kernel=kernel)
+
+
+def _mesh_packed(
+    ifc: ifcopenshell.file,
+    elements: Sequence[ifcopenshell.entity_instance],
+    progress: Progress | None = None,
+) -> dict:
+    """:func:`mesh_elements` as flat arrays (what a worker sends back)."""
+    batch = _Batch()
+    for kernel in KERNELS:
+        try:
+            _run_iterator(ifc, elements, kernel, progress, batch)
+        except Exception as exc:  # a kernel that fails the whole pass: try the next
+            _LOG.warning("geometry kernel %s failed (%s); trying the next", kernel, exc)
+            continue
+        if batch.ids:
+            break
+    packed = batch.packed()
+    have = set(packed["ids"].tolist())
+    extra = _Batch()
+    for element in elements:
+        if element.id() in have:
+            continue
+        for kernel in KERNELS[1:]:
+            mesh = _mesh_one(element, kernel)
+            if mesh is not None:
+                faces = mesh.faces.astype(np.int32)
+                extra.add(element.id(), mesh.verts.tobytes(), faces.tobytes(), kernel)
+                break
+    if extra.ids:
+        packed = _concat(packed, extra.packed())
+    if progress is not None:
+        progress("geometry", len(elements), len(elements))
+    return packed
+
+
+def _concat(a: dict, b: dict) -> dict:
+    return {
+        "ids": np.concatenate([a["ids"], b["ids"]]),
+        "kernels": [*a["kernels"], *b["kernels"]],
+        "nv": np.concatenate([a["nv"], b["nv"]]),
+        "nf": np.concatenate([a["nf"], b["nf"]]),
+        "verts": np.concatenate([a["verts"], b["verts"]]),
+        "faces": np.concatenate([a["faces"], b["faces"]]),
+    }
+
+
+def _unpack(data: dict) -> dict[int, Mesh]:
+    """Meshes by entity id from :func:`_mesh_packed`'s flat arrays."""
+    cuts_v = np.cumsum(data["nv"])[:-1]
+    verts = np.split(np.array(data["verts"], dtype=np.float64), cuts_v)
+    faces = np.split(data["faces"].astype(np.int64), np.cumsum(data["nf"])[:-1])
+    return {
+        int(i): Mesh(verts=v, faces=f, kernel=k)
+        for i, v, f, k in zip(
+            data["ids"].tolist(), verts, faces, data["kernels"], strict=True
+        )
+    }
 
 
 def mesh_elements(
@@ -146,25 +253,7 @@ def mesh_elements(
     """
     if not elements:
         return {}
-    out: dict[int, Mesh] = {}
-    for kernel in KERNELS:
-        try:
-            out = _run_iterator(ifc, elements, kernel, progress)
-        except Exception as exc:  # a kernel that fails the whole pass: try the next
-            _LOG.warning("geometry kernel %s failed (%s); trying the next", kernel, exc)
-            continue
-        if out:
-            break
-    missing = [e for e in elements if e.id() not in out]
-    for element in missing:
-        for kernel in KERNELS[1:]:
-            mesh = _mesh_one(element, kernel)
-            if mesh is not None:
-                out[element.id()] = mesh
-                break
-    if progress is not None:
-        progress("geometry", len(elements), len(elements))
-    return out
+    return _unpack(_mesh_packed(ifc, elements, progress))
 
 
 def mesh_footprint(mesh: Mesh, *, up_only: bool) -> Polygon | MultiPolygon:
@@ -198,31 +287,6 @@ def mesh_footprint(mesh: Mesh, *, up_only: bool) -> Polygon | MultiPolygon:
     polys = polys[shapely.area(polys) > 1e-12]
     union = shapely.union_all(polys)
     return shapely.affinity.translate(union, float(origin[0]), float(origin[1]))
-
-
-def _pack(meshes: dict[int, Mesh]) -> dict:
-    """Meshes as a few flat arrays (pickles fast: no per-mesh objects)."""
-    verts = [m.verts for m in meshes.values()]
-    faces = [m.faces for m in meshes.values()]
-    return {
-        "ids": np.fromiter(meshes, dtype=np.int64, count=len(meshes)),
-        "kernels": [m.kernel for m in meshes.values()],
-        "nv": np.array([len(v) for v in verts], dtype=np.int64),
-        "nf": np.array([len(f) for f in faces], dtype=np.int64),
-        "verts": np.concatenate(verts) if verts else np.zeros((0, 3)),
-        "faces": np.concatenate(faces) if faces else np.zeros((0, 3), np.int64),
-    }
-
-
-def _unpack(data: dict) -> dict[int, Mesh]:
-    verts = np.split(data["verts"], np.cumsum(data["nv"])[:-1])
-    faces = np.split(data["faces"], np.cumsum(data["nf"])[:-1])
-    return {
-        int(i): Mesh(verts=v, faces=f, kernel=k)
-        for i, v, f, k in zip(
-            data["ids"].tolist(), verts, faces, data["kernels"], strict=True
-        )
-    }
 
 
 class PendingMeshes:
@@ -300,10 +364,9 @@ def start_meshing(
         [
             start_call(
                 "geometry",
-                mesh_elements,
+                _mesh_packed,
                 ifc,
                 elements[k::workers],
-                encode=_pack,
                 decode=_unpack,
                 parallel=True,
             )
