@@ -95,11 +95,13 @@ def load_model(
     progress: Progress | None = None,
     *,
     ifc: object | None = None,
+    started: object | None = None,
 ) -> BuildingModel:
     """Read the IFC file with the config's shear-wall rules and diaphragm levels.
 
     ``ifc`` is the file already opened with :func:`ifc_bridge.open_file.open_ifc`
-    (it is then not parsed again).
+    (it is then not parsed again); ``started`` its geometry pass already begun
+    (:func:`ifc_bridge.read_model.start_read`).
     """
     from ifc_bridge.errors import IfcContentError
     from ifc_bridge.open_file import open_ifc
@@ -107,7 +109,9 @@ def load_model(
 
     opened = ifc if ifc is not None else open_ifc(model_path)
 
-    def read(storeys: tuple[str, ...], report: Progress | None) -> BuildingModel:
+    def read(
+        storeys: tuple[str, ...], report: Progress | None, begun: object | None
+    ) -> BuildingModel:
         return read_model_file(
             opened,
             str(model_path),
@@ -115,15 +119,16 @@ def load_model(
             use_predefined_type=config.use_predefined_type,
             diaphragm_storeys=storeys,
             progress=report,
+            started=begun,
         )
 
     try:
-        return read(config.analysis.diaphragm_levels, progress)
+        return read(config.analysis.diaphragm_levels, progress, started)
     except IfcContentError:
         if not config.analysis.diaphragm_levels:
             raise
         # name the config file and key when [levels].diaphragms names a lost storey
-        _check_storey_names(read((), None), config)
+        _check_storey_names(read((), None, None), config)
         raise
 
 
@@ -136,15 +141,19 @@ def check_model(
 ) -> CheckRun:
     """Read, allocate and check one IFC model.
 
-    The IDS validation runs in a worker process while the model is read and
-    checked, and the geometry pass in another (:mod:`ifc_bridge.worker`).
+    The geometry pass starts in worker processes as soon as the file is open and
+    its storeys and walls are found; the config and the analysis modules load
+    meanwhile, so an unusable IFC file is reported before a config error. The IDS
+    validation runs in another worker while the model is read and checked
+    (:mod:`ifc_bridge.worker`).
 
     Args:
         model_path: The architect's IFC file.
         config: A :class:`ProjectConfig` or the path of its TOML file.
         progress: Optional ``progress(stage, done, total)`` callback.
         timings: When given, filled with the wall-clock seconds of each stage
-            (``import``: the modules it loads on first use, ``open``, ``read``,
+            (``import``: the modules it loads on first use and the config,
+            ``open``: the parse and the start of the geometry pass, ``read``,
             ``allocate``, ``check``, ``requirements``: the wait for the IDS worker).
 
     Returns:
@@ -156,29 +165,36 @@ def check_model(
         AllocationError: The forces cannot be computed.
     """
     clock = _Stopwatch(timings)
-    from allocation.allocate import allocate
-    from checks.rules.run_rules import run_checks
     from ifc_bridge.gc_pause import collection_paused
     from ifc_bridge.open_file import open_ifc
+    from ifc_bridge.read_model import start_read
     from ifc_bridge.worker import PARALLEL_MIN, can_fork, start_call
 
     clock.lap("import")
     with collection_paused():
-        cfg = _config(config)
         ifc = open_ifc(model_path)
         _check_unique_guids(ifc, str(model_path))
+        # the geometry pass needs only the open file: it runs in workers while the
+        # config and the analysis modules load and the walls' properties are read
+        started = start_read(ifc, str(model_path))
         clock.lap("open")
-        # the IDS validation needs only the open file: it runs in a worker meanwhile
-        requirements = start_call(
-            "requirements",
-            _requirements,
-            ifc,
-            model_path,
-            parallel=len(ifc.by_type("IfcWall")) >= PARALLEL_MIN and can_fork(),
-            nice=10,  # behind the reader and the geometry worker: needed last
-        )
+        requirements = None
         try:
-            model = load_model(model_path, cfg, progress, ifc=ifc)
+            from allocation.allocate import allocate
+            from checks.rules.run_rules import run_checks
+
+            cfg = _config(config)
+            clock.lap("import")
+            # so does the IDS validation, needed last
+            requirements = start_call(
+                "requirements",
+                _requirements,
+                ifc,
+                model_path,
+                parallel=len(started.walls) >= PARALLEL_MIN and can_fork(),
+                nice=10,  # behind the reader and the geometry workers
+            )
+            model = load_model(model_path, cfg, progress, ifc=ifc, started=started)
             _check_storey_names(model, cfg)
             clock.lap("read")
             try:
@@ -194,7 +210,9 @@ def check_model(
             found = tuple(requirements.result())
             clock.lap("requirements")
         finally:
-            requirements.cancel()
+            started.cancel()
+            if requirements is not None:
+                requirements.cancel()
     return CheckRun(
         model=model, config=cfg, allocation=allocation, checks=checks,
         requirement_findings=found,

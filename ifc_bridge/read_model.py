@@ -12,24 +12,25 @@ from __future__ import annotations
 import logging
 import os
 from collections.abc import Callable, Sequence
+from dataclasses import dataclass
 
 import ifcopenshell
 
 from ifc_bridge._diaphragms import build_diaphragms, underside_reach
-from ifc_bridge._geometry import start_meshing
+from ifc_bridge._geometry import PendingMeshes, start_meshing
 from ifc_bridge._relations import Relations, build_relations
 from ifc_bridge._unfilled import unfilled_inserts, unfilled_issues
 from ifc_bridge.errors import IfcContentError
 from ifc_bridge.gc_pause import collection_paused
 from ifc_bridge.model import BuildingModel
 from ifc_bridge.open_file import open_ifc, schema_name
-from ifc_bridge.read_levels import read_levels
+from ifc_bridge.read_levels import StoreyLevels, read_levels
 from ifc_bridge.read_slabs import read_slab_plans
 from ifc_bridge.read_walls import prepare_walls, read_walls
 from ifc_bridge.shear_walls import MatchRule
 from ifc_bridge.units import length_unit_scale
 
-__all__ = ["read_model", "read_model_file"]
+__all__ = ["StartedRead", "read_model", "read_model_file", "start_read"]
 
 _LOG = logging.getLogger(__name__)
 
@@ -55,6 +56,72 @@ def _project(ifc: ifcopenshell.file) -> tuple[str, str]:
     if not projects:
         return "", ""
     return projects[0].Name or "", projects[0].GlobalId
+
+
+@dataclass(frozen=True, slots=True, kw_only=True)
+class StartedRead:
+    """A read begun: units, storeys and relations known, the geometry pass running.
+
+    Attributes:
+        ifc: The open file.
+        scale: Length unit scale [m per file unit].
+        storeys: The storeys read as levels.
+        walls: Every IfcWall, file order.
+        relations: The file's relationship maps.
+        inserts: Doors and windows that fill no opening.
+        meshes: The geometry pass under way (:func:`start_meshing`).
+    """
+
+    ifc: ifcopenshell.file
+    scale: float
+    storeys: StoreyLevels
+    walls: tuple[ifcopenshell.entity_instance, ...]
+    relations: Relations
+    inserts: tuple[ifcopenshell.entity_instance, ...]
+    meshes: PendingMeshes
+
+    def cancel(self) -> None:
+        """Stop the geometry workers (the read failed or is over)."""
+        self.meshes.cancel()
+
+
+def start_read(ifc: ifcopenshell.file, source: str) -> StartedRead:
+    """Check what every read needs and start the geometry pass in workers.
+
+    Common practice: the kernel pass needs only the open file, so a caller can start
+    it first and load its config, modules and requirements meanwhile (then pass the
+    result to :func:`read_model_file`).
+
+    Args:
+        ifc: The open file.
+        source: Its path, for messages.
+
+    Returns:
+        The started read; call ``cancel()`` if it is not handed to
+        :func:`read_model_file`.
+
+    Raises:
+        IfcContentError: No storeys, a storey without elevation, or no walls.
+        UnitsError: The length unit cannot be converted.
+    """
+    scale = length_unit_scale(ifc, source)
+    storeys = read_levels(ifc, source, scale=scale)
+    walls = tuple(ifc.by_type("IfcWall"))
+    if not walls:
+        msg = f"{source}: has no IfcWall; model the walls as IfcWall (not proxies)"
+        raise IfcContentError(msg)
+    relations = build_relations(ifc)
+    inserts = tuple(unfilled_inserts(ifc, relations))
+    meshes = start_meshing(ifc, _to_mesh(ifc, list(walls), relations, list(inserts)))
+    return StartedRead(
+        ifc=ifc,
+        scale=scale,
+        storeys=storeys,
+        walls=walls,
+        relations=relations,
+        inserts=inserts,
+        meshes=meshes,
+    )
 
 
 def read_model(
@@ -109,6 +176,7 @@ def read_model_file(
     use_predefined_type: bool = True,
     diaphragm_storeys: Sequence[str] = (),
     progress: Progress | None = None,
+    started: StartedRead | None = None,
 ) -> BuildingModel:
     """:func:`read_model` of a file already opened with :func:`open_ifc`.
 
@@ -122,6 +190,8 @@ def read_model_file(
         use_predefined_type: Treat PredefinedType SHEAR as a shear wall.
         diaphragm_storeys: As :func:`read_model`.
         progress: Optional ``(stage, done, total)`` callback.
+        started: The geometry pass already started on ``ifc`` by
+            :func:`start_read` (it is used up); None: start it here.
 
     Returns:
         The building model [SI: m].
@@ -132,23 +202,18 @@ def read_model_file(
     """
     if progress is not None:
         progress("open", 1, 1)
-    scale = length_unit_scale(ifc, source)
-    storeys = read_levels(ifc, source, scale=scale)
-    walls = ifc.by_type("IfcWall")
-    if not walls:
-        msg = f"{source}: has no IfcWall; model the walls as IfcWall (not proxies)"
-        raise IfcContentError(msg)
-    relations = build_relations(ifc)
-    inserts = unfilled_inserts(ifc, relations)
-    # the kernel pass runs in a worker while the walls' relations and properties
+    if started is None or started.ifc is not ifc:
+        started = start_read(ifc, source)
+    scale, storeys, walls = started.scale, started.storeys, started.walls
+    relations, inserts = started.relations, started.inserts
+    # the kernel pass runs in workers while the walls' relations and properties
     # are read here
-    pending = start_meshing(ifc, _to_mesh(ifc, walls, relations, inserts))
     cache: dict = {}
     try:
         prepared = prepare_walls(walls, scale=scale, cache=cache, relations=relations)
-        meshes = pending.result()
+        meshes = started.meshes.result()
     finally:
-        pending.cancel()
+        started.cancel()
     if progress is not None:
         progress("geometry", len(meshes), len(meshes))
     plans, slab_issues = read_slab_plans(
