@@ -1,23 +1,26 @@
 """Front door of the IFC reader: one IFC file in, one :class:`BuildingModel` out.
 
 Reads the storeys as levels, the floor and roof slabs as diaphragms and every
-IfcWall as story-high wall segments, then recognises the shear walls. All geometry
-is meshed in one pass of ifcopenshell's geometry iterator (manifold kernel, falling
-back to opencascade, then to the direct-attribute extractor). SI units: metres,
-world X-Y plan, Z up.
+IfcWall as story-high wall segments, then recognises the shear walls. A wall whose
+body is one plumb extrusion of a straight-edged profile is read from its attributes
+(:mod:`ifc_bridge._plain_body`: the kernel's mesh of it has the same vertices); all
+other geometry is meshed in one pass of ifcopenshell's geometry iterator (manifold
+kernel, falling back to opencascade, then to the direct-attribute extractor), run in
+worker processes. SI units: metres, world X-Y plan, Z up.
 """
 
 from __future__ import annotations
 
 import logging
 import os
-from collections.abc import Callable, Sequence
+from collections.abc import Callable, Mapping, Sequence
 from dataclasses import dataclass
 
 import ifcopenshell
 
 from ifc_bridge._diaphragms import build_diaphragms, underside_reach
-from ifc_bridge._geometry import PendingMeshes, start_meshing
+from ifc_bridge._geometry import PendingMeshes, mesh_elements, start_meshing
+from ifc_bridge._plain_body import plain_item
 from ifc_bridge._relations import Relations, build_relations
 from ifc_bridge._unfilled import unfilled_inserts, unfilled_issues
 from ifc_bridge.errors import IfcContentError
@@ -39,16 +42,19 @@ Progress = Callable[[str, int, int], None]
 
 def _to_mesh(
     ifc: ifcopenshell.file,
-    walls: list[ifcopenshell.entity_instance],
+    walls: Sequence[ifcopenshell.entity_instance],
     relations: Relations,
-    inserts: list[ifcopenshell.entity_instance],
+    inserts: Sequence[ifcopenshell.entity_instance],
+    plain: Mapping[int, ifcopenshell.entity_instance],
 ) -> list:
+    """What the kernel meshes: walls not read directly, slabs, openings, inserts."""
     slabs = ifc.by_type("IfcSlab")
     roofs = ifc.by_type("IfcRoof")
     openings = []
     for host in (*walls, *slabs, *roofs):
         openings.extend(relations.voids.get(host.id(), ()))
-    return [*walls, *slabs, *openings, *inserts]
+    kernel_walls = [w for w in walls if w.id() not in plain]
+    return [*kernel_walls, *slabs, *openings, *inserts]
 
 
 def _project(ifc: ifcopenshell.file) -> tuple[str, str]:
@@ -69,6 +75,8 @@ class StartedRead:
         walls: Every IfcWall, file order.
         relations: The file's relationship maps.
         inserts: Doors and windows that fill no opening.
+        plain: Entity id -> extruded solid of the walls whose body is read
+            directly (:func:`ifc_bridge._plain_body.plain_item`), not meshed.
         meshes: The geometry pass under way (:func:`start_meshing`).
     """
 
@@ -78,6 +86,7 @@ class StartedRead:
     walls: tuple[ifcopenshell.entity_instance, ...]
     relations: Relations
     inserts: tuple[ifcopenshell.entity_instance, ...]
+    plain: Mapping[int, ifcopenshell.entity_instance]
     meshes: PendingMeshes
 
     def cancel(self) -> None:
@@ -112,7 +121,8 @@ def start_read(ifc: ifcopenshell.file, source: str) -> StartedRead:
         raise IfcContentError(msg)
     relations = build_relations(ifc)
     inserts = tuple(unfilled_inserts(ifc, relations))
-    meshes = start_meshing(ifc, _to_mesh(ifc, list(walls), relations, list(inserts)))
+    plain = {w.id(): item for w in walls if (item := plain_item(w)) is not None}
+    meshes = start_meshing(ifc, _to_mesh(ifc, walls, relations, inserts, plain))
     return StartedRead(
         ifc=ifc,
         scale=scale,
@@ -120,6 +130,7 @@ def start_read(ifc: ifcopenshell.file, source: str) -> StartedRead:
         walls=walls,
         relations=relations,
         inserts=inserts,
+        plain=plain,
         meshes=meshes,
     )
 
@@ -210,10 +221,16 @@ def read_model_file(
     # are read here
     cache: dict = {}
     try:
-        prepared = prepare_walls(walls, scale=scale, cache=cache, relations=relations)
+        prepared = prepare_walls(
+            walls, scale=scale, cache=cache, relations=relations, plain=started.plain
+        )
         meshes = started.meshes.result()
     finally:
         started.cancel()
+    # a body that looked plain but is not (out of plumb, degenerate): the kernel's
+    unread = [p.wall for p in prepared if p.body is None and p.wall.id() in started.plain]
+    if unread:
+        meshes = {**meshes, **mesh_elements(ifc, unread)}
     if progress is not None:
         progress("geometry", len(meshes), len(meshes))
     plans, slab_issues = read_slab_plans(

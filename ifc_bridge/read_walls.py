@@ -19,10 +19,10 @@ from ifc_bridge._centreline import Centreline, centreline, centrelines_along
 from ifc_bridge._direct import body_extrusion
 from ifc_bridge._geometry import Mesh
 from ifc_bridge._openings import wall_openings
-from ifc_bridge._relations import Relations, attr, build_relations
-from ifc_bridge._semantics import WallSemantics, wall_semantics
+from ifc_bridge._prepare_walls import PreparedWall, prepare_walls
+from ifc_bridge._relations import Relations, build_relations
+from ifc_bridge._semantics import WallSemantics
 from ifc_bridge._split import split_fields
-from ifc_bridge._wall_axis import AxisInfo, wall_axis
 from ifc_bridge.model import ImportIssue, IssueSeverity, Level, WallSegment
 from ifc_bridge.read_slabs import level_below
 from ifc_bridge.shear_walls import MatchRule, match_assembly
@@ -65,58 +65,6 @@ class WallsRead:
     wall_storeys: tuple[tuple[str, str], ...]
     plans: tuple[WallPlan, ...]
     issues: tuple[ImportIssue, ...]
-
-
-@dataclass(frozen=True, slots=True, kw_only=True)
-class PreparedWall:
-    """What is known of a wall before its geometry: read while the kernel meshes.
-
-    Attributes:
-        wall: The IfcWall.
-        guid: Its GlobalId.
-        container: Its spatial container (IfcBuildingStorey), or None.
-        axis: Direction and curvature from its 'Axis' representation.
-        semantics: Name, type, materials, predefined type, properties.
-    """
-
-    wall: ifcopenshell.entity_instance
-    guid: str
-    container: ifcopenshell.entity_instance | None
-    axis: AxisInfo
-    semantics: WallSemantics
-
-
-def prepare_walls(
-    walls: Sequence[ifcopenshell.entity_instance],
-    *,
-    scale: float,
-    cache: dict[int, NDArray[np.float64]],
-    relations: Relations,
-) -> tuple[PreparedWall, ...]:
-    """The geometry-free part of reading every wall (relations, Axis, properties).
-
-    Common practice: as :func:`read_walls`; split out so that it runs while the
-    geometry kernel meshes the bodies (:func:`ifc_bridge._geometry.start_meshing`).
-
-    Args:
-        walls: The IfcWall entities, file order.
-        scale: Length unit scale [m per file unit].
-        cache: Placement memo.
-        relations: The file's relationship maps.
-
-    Returns:
-        One prepared wall per IfcWall, same order.
-    """
-    return tuple(
-        PreparedWall(
-            wall=wall,
-            guid=attr(wall, "GlobalId"),
-            container=relations.storey_of(wall),
-            axis=wall_axis(wall, cache),
-            semantics=wall_semantics(wall, scale, relations),
-        )
-        for wall in walls
-    )
 
 
 def _issue(
@@ -403,7 +351,10 @@ def read_walls(
     storeys: list[tuple[str, str]] = []
     plans: list[WallPlan] = []
     issues: list[ImportIssue] = []
-    bodies = [_body(p.wall, ctx.meshes, ctx.scale, ctx.cache) for p in prepared]
+    bodies = [
+        p.body if p.body is not None else _body(p.wall, ctx.meshes, ctx.scale, ctx.cache)
+        for p in prepared
+    ]
     lines = _straight_lines(prepared, bodies)
     for prep, body, line in zip(prepared, bodies, lines, strict=True):
         storey, parts, plan, found = _read_one(prep, ctx, body, line)
