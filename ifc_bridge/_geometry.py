@@ -24,17 +24,17 @@ from numpy.typing import NDArray
 from shapely.geometry import MultiPolygon, Polygon
 
 from ifc_bridge import worker
-from ifc_bridge.worker import PARALLEL_MIN, PendingCall, can_fork, start_call
+from ifc_bridge.worker import PARALLEL_MIN, can_fork
 
 __all__ = [
     "KERNELS",
     "MAX_MESH_WORKERS",
     "Mesh",
-    "PendingMeshes",
     "mesh_elements",
     "mesh_footprint",
+    "mesh_packed",
     "mesh_workers",
-    "start_meshing",
+    "unpack_meshes",
 ]
 
 _LOG = logging.getLogger(__name__)
@@ -174,7 +174,7 @@ def _mesh_one(element: ifcopenshell.entity_instance, kernel: str) -> Mesh | None
     return Mesh(verts=verts.copy(), faces=faces.astype(np.int64), kernel=kernel)
 
 
-def _mesh_packed(
+def mesh_packed(
     ifc: ifcopenshell.file,
     elements: Sequence[ifcopenshell.entity_instance],
     progress: Progress | None = None,
@@ -219,8 +219,10 @@ def _concat(a: dict, b: dict) -> dict:
     }
 
 
-def _unpack(data: dict) -> dict[int, Mesh]:
-    """Meshes by entity id from :func:`_mesh_packed`'s flat arrays."""
+def unpack_meshes(data: dict) -> dict[int, Mesh]:
+    """Meshes by entity id from :func:`mesh_packed`'s flat arrays."""
+    if len(data["ids"]) == 0:
+        return {}
     cuts_v = np.cumsum(data["nv"])[:-1]
     verts = np.split(np.array(data["verts"], dtype=np.float64), cuts_v)
     faces = np.split(data["faces"].astype(np.int64), np.cumsum(data["nf"])[:-1])
@@ -253,7 +255,7 @@ def mesh_elements(
     """
     if not elements:
         return {}
-    return _unpack(_mesh_packed(ifc, elements, progress))
+    return unpack_meshes(mesh_packed(ifc, elements, progress))
 
 
 def mesh_footprint(mesh: Mesh, *, up_only: bool) -> Polygon | MultiPolygon:
@@ -289,31 +291,6 @@ def mesh_footprint(mesh: Mesh, *, up_only: bool) -> Polygon | MultiPolygon:
     return shapely.affinity.translate(union, float(origin[0]), float(origin[1]))
 
 
-class PendingMeshes:
-    """Geometry passes under way in one or more workers; their meshes merged.
-
-    Each worker meshes its own share of the elements; :meth:`result` waits for all
-    of them (a worker that fails is replaced by its share meshed here).
-    """
-
-    __slots__ = ("_calls",)
-
-    def __init__(self, calls: Sequence[PendingCall[dict[int, Mesh]]]) -> None:
-        self._calls = list(calls)
-
-    def result(self) -> dict[int, Mesh]:
-        """The meshes of every element, by entity id [m]."""
-        out: dict[int, Mesh] = {}
-        for call in self._calls:
-            out.update(call.result())
-        return out
-
-    def cancel(self) -> None:
-        """Stop the workers whose results are no longer wanted."""
-        for call in self._calls:
-            call.cancel()
-
-
 def mesh_workers(count: int) -> int:
     """How many geometry workers share ``count`` elements (0: mesh in this process).
 
@@ -324,52 +301,3 @@ def mesh_workers(count: int) -> int:
     if count < PARALLEL_MIN or not can_fork():
         return 0
     return max(1, min(worker.usable_cpus(), MAX_MESH_WORKERS, count // max(PARALLEL_MIN, 1)))
-
-
-def start_meshing(
-    ifc: ifcopenshell.file,
-    elements: Sequence[ifcopenshell.entity_instance],
-    *,
-    parallel: bool | None = None,
-) -> PendingMeshes:
-    """Start :func:`mesh_elements` in worker processes, so the caller reads on.
-
-    Common practice: the kernel pass is the reader's largest single cost and needs
-    only the open file, so it runs in forked workers
-    (:func:`ifc_bridge.worker.start_call`), each meshing every n-th element, while
-    the reader goes through storeys, relations and properties; the merged result
-    equals a serial :func:`mesh_elements`. A model of fewer than ``PARALLEL_MIN``
-    elements is meshed in this process.
-
-    Args:
-        ifc: The open file.
-        elements: Walls, slabs, openings (and unfilled doors/windows) to mesh.
-        parallel: Force (True: at least one worker) or forbid (False) the workers;
-            default: automatic.
-
-    Returns:
-        The pending passes; ``.result()`` gives the meshes by entity id [m].
-    """
-    elements = list(elements)
-    workers = mesh_workers(len(elements))
-    if parallel is True:
-        workers = max(workers, 1)
-    elif parallel is False:
-        workers = 0
-    if workers == 0:
-        return PendingMeshes(
-            [start_call("geometry", mesh_elements, ifc, elements, parallel=False)]
-        )
-    return PendingMeshes(
-        [
-            start_call(
-                "geometry",
-                _mesh_packed,
-                ifc,
-                elements[k::workers],
-                decode=_unpack,
-                parallel=True,
-            )
-            for k in range(workers)
-        ]
-    )

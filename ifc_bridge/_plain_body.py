@@ -85,13 +85,13 @@ def _straight_edged(curve: ifcopenshell.entity_instance) -> bool:
 def _profile_corners(area: ifcopenshell.entity_instance) -> list[tuple[float, float]]:
     if area.is_a() == "IfcRectangleProfileDef":
         x, y = float(attr(area, "XDim")) / 2.0, float(attr(area, "YDim")) / 2.0
-        local = ((-x, -y), (x, -y), (x, y), (-x, y))
+        local = [(-x, -y), (x, -y), (x, y), (-x, y)]
         position = attr(area, "Position", None)
         if position is None:
-            return list(local)
-        m = axis2placement(position)
+            return local
+        (r0, r1, _, _) = axis2placement(position).tolist()
         return [
-            (m[0, 0] * u + m[0, 1] * v + m[0, 3], m[1, 0] * u + m[1, 1] * v + m[1, 3])
+            (r0[0] * u + r0[1] * v + r0[3], r1[0] * u + r1[1] * v + r1[3])
             for u, v in local
         ]
     curve = attr(area, "OuterCurve")
@@ -100,11 +100,19 @@ def _profile_corners(area: ifcopenshell.entity_instance) -> list[tuple[float, fl
     coords = attr(attr(curve, "Points"), "CoordList")
     segments = attr(curve, "Segments") or ()
     if not segments:
-        return [tuple(c[:2]) for c in coords]
-    used = sorted({i for s in segments for i in s.wrappedValue})
+        return [(c[0], c[1]) for c in coords]
+    used = sorted({i for s in segments for i in s.get_argument(0)})
     if used[0] < 1 or used[-1] > len(coords):
         return []  # an index outside the point list: the kernel reports it
-    return [tuple(coords[i - 1][:2]) for i in used]
+    return [(coords[i - 1][0], coords[i - 1][1]) for i in used]
+
+
+def _area(corners: list[tuple[float, float]]) -> float:
+    """Shoelace area of the profile polygon [file units²]."""
+    twice = 0.0
+    for (x0, y0), (x1, y1) in zip(corners, corners[1:] + corners[:1], strict=True):
+        twice += x0 * y1 - x1 * y0
+    return abs(twice) / 2.0
 
 
 def plain_body(
@@ -116,7 +124,8 @@ def plain_body(
 
     Common practice: IfcExtrudedAreaSolid, IFC 4.3 §8.8.3.15: the profile lies in the
     solid's Position x-y plane and is swept by Depth along ExtrudedDirection (given
-    in Position coordinates, not necessarily of unit length).
+    in Position coordinates, not necessarily of unit length). Plain float arithmetic:
+    a handful of corners per wall is cheaper without numpy's per-call overhead.
 
     Args:
         item: The solid from :func:`plain_item`.
@@ -125,29 +134,36 @@ def plain_body(
         scale: Length unit scale [m per file unit].
 
     Returns:
-        The body [m], or None when the sweep is not plumb, has no depth or no area
-        (the kernel then meshes the wall).
+        The body [m], or None when the sweep is not plumb, has no depth or the profile
+        no area (the kernel then meshes the wall).
     """
     position = attr(item, "Position", None)
     m = placement if position is None else placement @ axis2placement(position)
-    ratios = tuple(attr(attr(item, "ExtrudedDirection"), "DirectionRatios"))
-    ratios = (*ratios, 0.0, 0.0, 0.0)[:3]
-    d = m[:3, :3] @ np.asarray(ratios, dtype=np.float64)
-    length = math.sqrt(float(d @ d))
+    r0, r1, r2, _ = m.tolist()
+    ratios = (*attr(attr(item, "ExtrudedDirection"), "DirectionRatios"), 0.0, 0.0)
+    a, b, c = ratios[0], ratios[1], ratios[2]
+    dx = r0[0] * a + r0[1] * b + r0[2] * c
+    dy = r1[0] * a + r1[1] * b + r1[2] * c
+    dz = r2[0] * a + r2[1] * b + r2[2] * c
+    length = math.sqrt(dx * dx + dy * dy + dz * dz)
     depth = float(attr(item, "Depth") or 0.0)
-    if length <= 0.0 or depth <= 0.0:
+    if not length > 0.0 or not depth > 0.0:
         return None
     # plumb sweep of a horizontal profile: plan vertices are the same at both ends
-    if math.hypot(d[0], d[1]) > _PLUMB_TOL * length or abs(m[2, 2] - 1.0) > _PLUMB_TOL:
+    if math.hypot(dx, dy) > _PLUMB_TOL * length or abs(r2[2] - 1.0) > _PLUMB_TOL:
         return None
     corners = _profile_corners(attr(item, "SweptArea"))
-    if len(corners) < 3:
+    if len(corners) < 3 or not _area(corners) > 0.0:
         return None
-    local = np.asarray(corners, dtype=np.float64)
-    plan = local @ m[:2, :2].T + m[:2, 3]
-    span = plan.max(axis=0) - plan.min(axis=0)
-    if not np.isfinite(plan).all() or float(span.min()) <= 0.0:
+    plan = [
+        (
+            (r0[0] * u + r0[1] * v + r0[3]) * scale,
+            (r1[0] * u + r1[1] * v + r1[3]) * scale,
+        )
+        for u, v in corners
+    ]
+    if not all(math.isfinite(x) and math.isfinite(y) for x, y in plan):
         return None
-    z0 = float(m[2, 3])
-    z1 = z0 + math.copysign(depth, float(d[2]))
-    return plan * scale, min(z0, z1) * scale, max(z0, z1) * scale
+    z0 = r2[3]
+    z1 = z0 + math.copysign(depth, dz)
+    return np.array(plan), min(z0, z1) * scale, max(z0, z1) * scale

@@ -1,24 +1,24 @@
 """The kernel-free part of reading walls: relations, Axis, properties, plain bodies.
 
 It runs while the geometry kernel meshes the other bodies in workers
-(:func:`ifc_bridge._geometry.start_meshing`); :func:`ifc_bridge.read_walls.read_walls`
+(:func:`ifc_bridge._shape_pass.start_shapes`); :func:`ifc_bridge.read_walls.read_walls`
 finishes each wall once the meshes are in.
 """
 
 from __future__ import annotations
 
-from collections.abc import Mapping, Sequence
+from collections.abc import Sequence
 from dataclasses import dataclass
 
 import ifcopenshell
 import numpy as np
 from numpy.typing import NDArray
 
-from ifc_bridge._direct import placement_matrix
-from ifc_bridge._plain_body import PlainBody, plain_body
+from ifc_bridge._plain_body import PlainBody
 from ifc_bridge._relations import Relations, attr
 from ifc_bridge._semantics import WallSemantics, wall_semantics
-from ifc_bridge._wall_axis import AxisInfo, wall_axis
+from ifc_bridge._shape_pass import WallShape, wall_shapes
+from ifc_bridge._wall_axis import AxisInfo
 
 __all__ = ["PreparedWall", "prepare_walls"]
 
@@ -51,41 +51,39 @@ def prepare_walls(
     scale: float,
     cache: dict[int, NDArray[np.float64]],
     relations: Relations,
-    plain: Mapping[int, ifcopenshell.entity_instance] | None = None,
+    shapes: Sequence[WallShape] | None = None,
+    semantics: Sequence[WallSemantics] | None = None,
 ) -> tuple[PreparedWall, ...]:
     """The kernel-free part of reading every wall (relations, Axis, properties).
 
-    Common practice: as :func:`read_walls`; split out so that it runs while the
-    geometry kernel meshes the bodies (:func:`ifc_bridge._geometry.start_meshing`).
+    Common practice: as :func:`ifc_bridge.read_walls.read_walls`; split out so that
+    it runs while the geometry kernel meshes the bodies
+    (:func:`ifc_bridge._shape_pass.start_shapes`).
 
     Args:
         walls: The IfcWall entities, file order.
         scale: Length unit scale [m per file unit].
         cache: Placement memo.
         relations: The file's relationship maps.
-        plain: Entity id -> extruded solid of the walls whose body is read here
-            (:func:`ifc_bridge._plain_body.plain_item`); the others are meshed.
+        shapes: Axis and plain body of each wall, when the shape pass read them;
+            None: read here (:func:`ifc_bridge._shape_pass.wall_shapes`).
+        semantics: Properties of each wall, when already read; None: read here.
 
     Returns:
         One prepared wall per IfcWall, same order.
     """
-    plain = plain or {}
-    out = []
-    for wall in walls:
-        axis = wall_axis(wall, cache)  # memoises the wall's placement
-        item = plain.get(wall.id())
-        body = None
-        if item is not None:
-            m = placement_matrix(attr(wall, "ObjectPlacement"), cache)
-            body = plain_body(item, m, scale)
-        out.append(
-            PreparedWall(
-                wall=wall,
-                guid=attr(wall, "GlobalId"),
-                container=relations.storey_of(wall),
-                axis=axis,
-                semantics=wall_semantics(wall, scale, relations),
-                body=body,
-            )
+    if shapes is None:
+        shapes, _ = wall_shapes(walls, scale, cache)
+    if semantics is None:
+        semantics = [wall_semantics(w, scale, relations) for w in walls]
+    return tuple(
+        PreparedWall(
+            wall=wall,
+            guid=attr(wall, "GlobalId"),
+            container=relations.storey_of(wall),
+            axis=shape.axis,
+            semantics=sem,
+            body=shape.body,
         )
-    return tuple(out)
+        for wall, shape, sem in zip(walls, shapes, semantics, strict=True)
+    )

@@ -13,15 +13,15 @@ from __future__ import annotations
 
 import logging
 import os
-from collections.abc import Callable, Mapping, Sequence
+from collections.abc import Callable, Sequence
 from dataclasses import dataclass
 
 import ifcopenshell
 
 from ifc_bridge._diaphragms import build_diaphragms, underside_reach
-from ifc_bridge._geometry import PendingMeshes, mesh_elements, start_meshing
-from ifc_bridge._plain_body import plain_item
 from ifc_bridge._relations import Relations, build_relations
+from ifc_bridge._semantics import wall_semantics
+from ifc_bridge._shape_pass import PendingShapes, start_shapes
 from ifc_bridge._unfilled import unfilled_inserts, unfilled_issues
 from ifc_bridge.errors import IfcContentError
 from ifc_bridge.gc_pause import collection_paused
@@ -40,21 +40,19 @@ _LOG = logging.getLogger(__name__)
 Progress = Callable[[str, int, int], None]
 
 
-def _to_mesh(
+def _others(
     ifc: ifcopenshell.file,
     walls: Sequence[ifcopenshell.entity_instance],
     relations: Relations,
     inserts: Sequence[ifcopenshell.entity_instance],
-    plain: Mapping[int, ifcopenshell.entity_instance],
 ) -> list:
-    """What the kernel meshes: walls not read directly, slabs, openings, inserts."""
+    """What the kernel meshes besides walls: slabs, openings, unfilled inserts."""
     slabs = ifc.by_type("IfcSlab")
     roofs = ifc.by_type("IfcRoof")
     openings = []
     for host in (*walls, *slabs, *roofs):
         openings.extend(relations.voids.get(host.id(), ()))
-    kernel_walls = [w for w in walls if w.id() not in plain]
-    return [*kernel_walls, *slabs, *openings, *inserts]
+    return [*slabs, *openings, *inserts]
 
 
 def _project(ifc: ifcopenshell.file) -> tuple[str, str]:
@@ -75,9 +73,8 @@ class StartedRead:
         walls: Every IfcWall, file order.
         relations: The file's relationship maps.
         inserts: Doors and windows that fill no opening.
-        plain: Entity id -> extruded solid of the walls whose body is read
-            directly (:func:`ifc_bridge._plain_body.plain_item`), not meshed.
-        meshes: The geometry pass under way (:func:`start_meshing`).
+        shapes: The geometry passes under way (:func:`start_shapes`): wall axes,
+            plain wall bodies and the kernel's meshes of the rest.
     """
 
     ifc: ifcopenshell.file
@@ -86,12 +83,11 @@ class StartedRead:
     walls: tuple[ifcopenshell.entity_instance, ...]
     relations: Relations
     inserts: tuple[ifcopenshell.entity_instance, ...]
-    plain: Mapping[int, ifcopenshell.entity_instance]
-    meshes: PendingMeshes
+    shapes: PendingShapes
 
     def cancel(self) -> None:
         """Stop the geometry workers (the read failed or is over)."""
-        self.meshes.cancel()
+        self.shapes.cancel()
 
 
 def start_read(ifc: ifcopenshell.file, source: str) -> StartedRead:
@@ -121,8 +117,7 @@ def start_read(ifc: ifcopenshell.file, source: str) -> StartedRead:
         raise IfcContentError(msg)
     relations = build_relations(ifc)
     inserts = tuple(unfilled_inserts(ifc, relations))
-    plain = {w.id(): item for w in walls if (item := plain_item(w)) is not None}
-    meshes = start_meshing(ifc, _to_mesh(ifc, walls, relations, inserts, plain))
+    shapes = start_shapes(ifc, walls, _others(ifc, walls, relations, inserts), scale)
     return StartedRead(
         ifc=ifc,
         scale=scale,
@@ -130,8 +125,7 @@ def start_read(ifc: ifcopenshell.file, source: str) -> StartedRead:
         walls=walls,
         relations=relations,
         inserts=inserts,
-        plain=plain,
-        meshes=meshes,
+        shapes=shapes,
     )
 
 
@@ -217,20 +211,21 @@ def read_model_file(
         started = start_read(ifc, source)
     scale, storeys, walls = started.scale, started.storeys, started.walls
     relations, inserts = started.relations, started.inserts
-    # the kernel pass runs in workers while the walls' relations and properties
-    # are read here
     cache: dict = {}
     try:
-        prepared = prepare_walls(
-            walls, scale=scale, cache=cache, relations=relations, plain=started.plain
-        )
-        meshes = started.meshes.result()
+        # the walls' properties are read here while the workers run the geometry
+        semantics = [wall_semantics(w, scale, relations) for w in walls]
+        shapes, meshes = started.shapes.result()
     finally:
         started.cancel()
-    # a body that looked plain but is not (out of plumb, degenerate): the kernel's
-    unread = [p.wall for p in prepared if p.body is None and p.wall.id() in started.plain]
-    if unread:
-        meshes = {**meshes, **mesh_elements(ifc, unread)}
+    prepared = prepare_walls(
+        walls,
+        scale=scale,
+        cache=cache,
+        relations=relations,
+        shapes=shapes,
+        semantics=semantics,
+    )
     if progress is not None:
         progress("geometry", len(meshes), len(meshes))
     plans, slab_issues = read_slab_plans(

@@ -61,7 +61,9 @@ class PendingCall(Generic[T]):
         name: What it computes, for log messages.
         fn: The function.
         args: Its positional arguments.
-        decode: Turns the worker's pickled value into the result (identity default).
+        encode: Applied to the function's value before it is pickled (identity).
+        decode: Turns the encoded value into the result (identity default); the
+            result is ``decode(encode(fn(*args)))`` wherever ``fn`` runs.
         pid: Worker process id, or 0 when there is none.
         fd: Read end of the worker's pipe, or -1.
     """
@@ -69,6 +71,7 @@ class PendingCall(Generic[T]):
     name: str
     fn: Callable[..., Any]
     args: tuple[Any, ...] = ()
+    encode: Callable[[Any], Any] | None = None
     decode: Callable[[Any], T] | None = None
     pid: int = 0
     fd: int = -1
@@ -85,6 +88,10 @@ class PendingCall(Generic[T]):
                 self._value, self._done = value, True
                 return value
         value = self.fn(*self.args)
+        if self.encode is not None:
+            value = self.encode(value)
+        if self.decode is not None:
+            value = self.decode(value)
         self._value, self._done = value, True
         return value
 
@@ -134,8 +141,9 @@ def start_call(
         fn: A function whose result pickles (after ``encode``).
         *args: Its arguments (shared with the worker by the fork, not pickled).
         encode: Applied to the result in the worker before pickling (compact form).
-        decode: Applied to the unpickled value in this process; ``decode(encode(r))``
-            must equal ``r``.
+        decode: Applied to the unpickled value in this process; when ``fn`` runs
+            here instead (no worker, or a failed one) the result is still
+            ``decode(encode(fn(*args)))``.
         parallel: Force (True) or forbid (False) the worker; default :func:`can_fork`.
         nice: Added to the worker's scheduling niceness (POSIX ``nice``): a worker
             whose result is wanted last yields the cores to the others meanwhile.
@@ -143,7 +151,9 @@ def start_call(
     Returns:
         The pending call.
     """
-    pending: PendingCall[T] = PendingCall(name=name, fn=fn, args=args, decode=decode)
+    pending: PendingCall[T] = PendingCall(
+        name=name, fn=fn, args=args, encode=encode, decode=decode
+    )
     if parallel is None:
         parallel = can_fork()
     if not parallel or not hasattr(os, "fork"):

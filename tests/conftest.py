@@ -30,7 +30,7 @@ def sample_path(name: str) -> Path:
 @pytest.fixture
 def forked_calls(monkeypatch) -> list[str]:
     """Names of the worker calls (ifc_bridge.worker) that really forked in the test."""
-    import ifc_bridge._geometry as geometry
+    import ifc_bridge._shape_pass as shape_pass
     from ifc_bridge import worker
 
     started: list[str] = []
@@ -43,5 +43,5 @@ def forked_calls(monkeypatch) -> list[str]:
         return pending
 
     monkeypatch.setattr(worker, "start_call", spy)
-    monkeypatch.setattr(geometry, "start_call", spy)  # imported by name there
+    monkeypatch.setattr(shape_pass, "start_call", spy)  # imported by name there
     return started

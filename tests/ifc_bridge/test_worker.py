@@ -12,6 +12,7 @@ import numpy as np
 import pytest
 
 import ifc_bridge._geometry as geometry
+import ifc_bridge._shape_pass as shape_pass
 from ifc_bridge import worker
 from ifc_bridge.open_file import open_ifc
 from ifc_bridge.read_model import read_model
@@ -94,12 +95,20 @@ def test_environment_switch_turns_workers_off(monkeypatch) -> None:
 
 
 @needs_fork
-def test_meshes_from_the_worker_equal_the_serial_pass() -> None:
+def test_shapes_and_meshes_from_the_workers_equal_the_serial_pass(monkeypatch) -> None:
     ifc = open_ifc(DEMO)
-    elements = [*ifc.by_type("IfcWall"), *ifc.by_type("IfcSlab")]
-    serial = geometry.mesh_elements(ifc, elements)
-    forked = geometry.start_meshing(ifc, elements, parallel=True).result()
-    assert forked.keys() == serial.keys()
+    walls = ifc.by_type("IfcWall")
+    slabs = ifc.by_type("IfcSlab")
+    monkeypatch.setattr(shape_pass, "plain_item", lambda wall: None)  # mesh them all
+    serial_shapes, serial = shape_pass.start_shapes(
+        ifc, walls, slabs, 1.0, parallel=False
+    ).result()
+    monkeypatch.setattr(geometry, "PARALLEL_MIN", 1)
+    monkeypatch.setattr(worker, "usable_cpus", lambda: 2)
+    pending = shape_pass.start_shapes(ifc, walls, slabs, 1.0, parallel=True)
+    forked_shapes, forked = pending.result()
+    assert forked_shapes == serial_shapes
+    assert forked.keys() == serial.keys() == {e.id() for e in (*walls, *slabs)}
     for key, mesh in serial.items():
         np.testing.assert_array_equal(forked[key].verts, mesh.verts)
         np.testing.assert_array_equal(forked[key].faces, mesh.faces)
