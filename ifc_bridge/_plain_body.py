@@ -25,7 +25,7 @@ from numpy.typing import NDArray
 from ifc_bridge._direct import axis2placement
 from ifc_bridge._relations import attr
 
-__all__ = ["PlainBody", "plain_body", "plain_item"]
+__all__ = ["PlainBody", "plain_body", "plain_item", "plain_solid"]
 
 # (plan vertices [m], shape (n, 2); base z [m]; top z [m])
 PlainBody = tuple[NDArray[np.float64], float, float]
@@ -55,9 +55,23 @@ def plain_item(wall: ifcopenshell.entity_instance) -> ifcopenshell.entity_instan
         for r in attr(shape, "Representations") or ()
         if (attr(r, "RepresentationIdentifier") or "") == "Body"
     ]
-    if len(body) != 1 or (attr(body[0], "RepresentationType") or "") != "SweptSolid":
+    return plain_solid(body[0]) if len(body) == 1 else None
+
+
+def plain_solid(
+    body: ifcopenshell.entity_instance,
+) -> ifcopenshell.entity_instance | None:
+    """:func:`plain_item` from the wall's only 'Body' representation, already found.
+
+    Args:
+        body: The IfcShapeRepresentation.
+
+    Returns:
+        The extruded solid, or None: the kernel meshes the wall.
+    """
+    if (attr(body, "RepresentationType") or "") != "SweptSolid":
         return None
-    items = attr(body[0], "Items") or ()
+    items = attr(body, "Items") or ()
     if len(items) != 1 or items[0].is_a() != "IfcExtrudedAreaSolid":
         return None
     area = attr(items[0], "SweptArea")

@@ -17,7 +17,7 @@ from numpy.typing import NDArray
 from ifc_bridge._direct import placement_matrix
 from ifc_bridge._relations import attr
 
-__all__ = ["AxisInfo", "wall_axis"]
+__all__ = ["AxisInfo", "axis_of", "wall_axis"]
 
 _TURN_TOL = np.radians(1.0)  # [rad]; a polyline turning more than this is not straight
 _CURVED_BASES = ("IfcCircle", "IfcEllipse", "IfcBSplineCurve", "IfcClothoid")
@@ -106,11 +106,29 @@ def wall_axis(
         for r in (attr(shape, "Representations") if shape else ())
         if (attr(r, "RepresentationIdentifier") or "") == "Axis"
     ]
-    if not reps:
+    return axis_of(wall, reps[0] if reps else None, cache)
+
+
+def axis_of(
+    wall: ifcopenshell.entity_instance,
+    rep: ifcopenshell.entity_instance | None,
+    cache: dict[int, NDArray[np.float64]],
+) -> AxisInfo:
+    """:func:`wall_axis` from the wall's 'Axis' representation, already found.
+
+    Args:
+        wall: The IfcWall.
+        rep: Its first 'Axis' IfcShapeRepresentation, or None.
+        cache: Placement memo.
+
+    Returns:
+        Axis information; ``direction`` None when there is no usable Axis.
+    """
+    if rep is None:
         return AxisInfo(direction=None, curved=False)
-    items = attr(reps[0], "Items")
+    items = attr(rep, "Items")
     if any(i.is_a("IfcMappedItem") for i in items):
-        resolved = ifcopenshell.util.representation.resolve_items(reps[0])
+        resolved = ifcopenshell.util.representation.resolve_items(rep)
     else:  # the common case, without resolve_items' overhead
         resolved = [{"item": i, "matrix": None} for i in items]
     m0 = placement_matrix(attr(wall, "ObjectPlacement"), cache)
