@@ -246,9 +246,14 @@ def _check_unique_guids(ifc, source: str) -> None:
     """
     from ifc_bridge.errors import IfcContentError
 
+    products = ifc.by_type("IfcProduct")
+    # IfcRoot's first attribute is GlobalId (ISO 16739); read by position, fast
+    guids = [e.get_argument(0) for e in products]
+    if len(set(guids)) == len(guids):
+        return
     seen: dict[str, list] = {}
-    for e in ifc.by_type("IfcProduct"):
-        seen.setdefault(e.GlobalId, []).append(e)
+    for guid, e in zip(guids, products, strict=True):
+        seen.setdefault(guid, []).append(e)
     for guid, elements in seen.items():
         if len(elements) > 1:
             who = ", ".join(f"#{e.id()} {e.is_a()} {e.Name or ''!r}" for e in elements)
