@@ -174,26 +174,26 @@ def check_model(
     with collection_paused():
         ifc = open_ifc(model_path)
         _check_unique_guids(ifc, str(model_path))
-        # the geometry pass needs only the open file: it runs in workers while the
-        # config and the analysis modules load and the walls' properties are read
-        started = start_read(ifc, str(model_path))
-        clock.lap("open")
-        requirements = None
+        # the IDS validation and the geometry pass need only the open file: they
+        # run in workers while the config and the analysis modules load and the
+        # walls' properties are read
+        requirements = start_call(
+            "requirements",
+            _requirements,
+            ifc,
+            model_path,
+            parallel=len(ifc.by_type("IfcWall")) >= PARALLEL_MIN and can_fork(),
+            nice=10,  # behind the reader and the geometry workers: needed last
+        )
+        started = None
         try:
+            started = start_read(ifc, str(model_path))
+            clock.lap("open")
             from allocation.allocate import allocate
             from checks.rules.run_rules import run_checks
 
             cfg = _config(config)
             clock.lap("import")
-            # so does the IDS validation, needed last
-            requirements = start_call(
-                "requirements",
-                _requirements,
-                ifc,
-                model_path,
-                parallel=len(started.walls) >= PARALLEL_MIN and can_fork(),
-                nice=10,  # behind the reader and the geometry workers
-            )
             model = load_model(model_path, cfg, progress, ifc=ifc, started=started)
             _check_storey_names(model, cfg)
             clock.lap("read")
@@ -210,9 +210,9 @@ def check_model(
             found = tuple(requirements.result())
             clock.lap("requirements")
         finally:
-            started.cancel()
-            if requirements is not None:
-                requirements.cancel()
+            if started is not None:
+                started.cancel()
+            requirements.cancel()
     return CheckRun(
         model=model, config=cfg, allocation=allocation, checks=checks,
         requirement_findings=found,

@@ -123,34 +123,69 @@ def write_requirements_ids(path: str | os.PathLike) -> Path:
     return path
 
 
+def _typed_once(ifc_file) -> dict[int, object]:
+    """Entity id -> type of the elements that exactly one IfcRelDefinesByType types.
+
+    ISO 16739 IfcRelDefinesByType: for such an element ``get_type`` returns that
+    relationship's RelatingType (IFC4: ``IsTypedBy[0]``; IFC2X3: the one
+    IfcRelDefinesByType in ``IsDefinedBy``); one pass over the relationships
+    answers them all. An element typed twice (invalid) is left to ``get_type``.
+    """
+    found: dict[int, object] = {}
+    twice: set[int] = set()
+    for rel in ifc_file.by_type("IfcRelDefinesByType"):
+        relating = rel.RelatingType
+        for obj in rel.RelatedObjects or ():
+            key = obj.id()
+            if key in found:
+                twice.add(key)
+            found[key] = relating
+    for key in twice:
+        del found[key]
+    return found
+
+
 @contextmanager
-def _types_memoised() -> Iterator[None]:
-    """``ifcopenshell.util.element.get_type`` memoised while one file is validated.
+def _types_memoised(ifc_file) -> Iterator[None]:
+    """ifcopenshell's ``get_type`` and ``get_material`` memoised during a validation.
 
     ifctester asks for the type of each wall three times (predefined type, material,
-    applicability), and each answer walks the inverse index again; the file does not
-    change during a validation, so each element's type is looked up once. The
-    original function is restored afterwards.
+    applicability) and for its material once per specification, and each answer
+    walks the inverse index again; the file does not change during a validation, so
+    each element's answer is looked up once (the types of singly typed elements all
+    at once, :func:`_typed_once`). The originals are restored afterwards.
     """
     import ifcopenshell.util.element as element
 
-    original = element.get_type
-    memo: dict[int, object] = {}
+    get_type, get_material = element.get_type, element.get_material
+    types: dict[int, object] = _typed_once(ifc_file)
+    materials: dict[tuple, object] = {}
 
-    def get_type(inst):  # same signature and result as the original
+    def memo_type(inst):  # same signature and result as the original
         key = inst.id()
         if not key:
-            return original(inst)
-        found = memo.get(key, memo)
-        if found is memo:
-            found = memo[key] = original(inst)
+            return get_type(inst)
+        found = types.get(key, types)
+        if found is types:
+            found = types[key] = get_type(inst)
         return found
 
-    element.get_type = get_type
+    def memo_material(element_, should_skip_usage=False, should_inherit=True):
+        key = (element_.id(), should_skip_usage, should_inherit)
+        if not key[0]:
+            return get_material(element_, should_skip_usage, should_inherit)
+        found = materials.get(key, materials)
+        if found is materials:
+            found = materials[key] = get_material(
+                element_, should_skip_usage, should_inherit
+            )
+        return found
+
+    element.get_type, element.get_material = memo_type, memo_material
     try:
         yield
     finally:
-        element.get_type = original
+        element.get_type, element.get_material = get_type, get_material
 
 
 def requirement_findings(ifc_file, *, source: str) -> list[Finding]:
@@ -164,7 +199,7 @@ def requirement_findings(ifc_file, *, source: str) -> list[Finding]:
         Warning findings, one per failed specification, naming the elements.
     """
     doc = build_requirements()
-    with _types_memoised():
+    with _types_memoised(ifc_file):
         doc.validate(ifc_file)
     out: list[Finding] = []
     for s in doc.specifications:

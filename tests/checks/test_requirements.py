@@ -4,6 +4,8 @@ from __future__ import annotations
 
 from pathlib import Path
 
+import pytest
+
 from checks.cli import main
 from checks.requirements import requirement_findings, write_requirements_ids
 from tests.conftest import sample_path
@@ -54,3 +56,32 @@ def test_storey_without_elevation_is_named(tmp_path):
                          products=[storey])
     found = {x.clause.split()[-1]: x for x in requirement_findings(f, source="tiny")}
     assert storey.GlobalId in found["SL-01"].guids
+
+
+@pytest.mark.parametrize(
+    "name",
+    [
+        "demo",
+        "Duplex_A_20110907.ifc",  # IFC2X3: types through IsDefinedBy
+        "IfcLCA_Revit2023_4x3.ifc",
+        "TallBuilding.ifc",
+        "PCERT_Building-Architecture_IFC4.ifc",
+    ],
+)
+def test_memoised_type_and_material_lookups_equal_ifcopenshell(name):
+    # reference: ifcopenshell.util.element.get_type / get_material, element by element
+    import ifcopenshell.util.element as element
+
+    from checks.requirements import _types_memoised
+    from ifc_bridge.open_file import open_ifc
+
+    path = DEMO / "demo_building.ifc" if name == "demo" else sample_path(name)
+    ifc = open_ifc(path)
+    items = [*ifc.by_type("IfcObject"), *ifc.by_type("IfcTypeObject")]
+    plain_types = [element.get_type(e) for e in items]
+    plain_materials = [element.get_material(e) for e in items]
+    with _types_memoised(ifc):
+        for _ in range(2):  # the second round answers from the memo
+            assert [element.get_type(e) for e in items] == plain_types
+            assert [element.get_material(e) for e in items] == plain_materials
+    assert element.get_type.__module__ == "ifcopenshell.util.element"  # restored
