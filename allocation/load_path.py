@@ -15,6 +15,10 @@ Edges run with the force: piece → line, mass → line, line → pier, pier →
 transfer → line (of the level below). Edge attributes: ``force`` [N], the force that
 passes, and ``share`` [-], that force over the force of the edge's source node (0 when
 the source carries none). Forces are positive in the +direction.
+
+The nodes and edges are first recorded as plain dicts
+(:mod:`allocation._load_path_record`); :class:`LoadPathGraphs` answers the report's
+questions from that record, so networkx is imported only when a graph is asked for.
 """
 
 from __future__ import annotations
@@ -23,6 +27,13 @@ from collections.abc import Iterator, Mapping, Sequence
 from dataclasses import dataclass
 from typing import TYPE_CHECKING
 
+from allocation._load_path_record import (
+    LoadPathRecord,
+    compose,
+    record_load_path,
+    share,
+    topological_order,
+)
 from allocation.errors import AllocationError
 from allocation.results import FlexibleResult, Pier, PierId
 from ifc_bridge.model import Direction
@@ -38,8 +49,6 @@ __all__ = [
     "explain_pier",
     "level_totals",
 ]
-
-_TINY = 1e-9  # [-] relative force below which a direct line mass is round-off
 
 
 @dataclass(frozen=True, slots=True, kw_only=True)
@@ -57,55 +66,6 @@ class Contribution:
     source: str
     share: float
     force: float
-
-
-def _share(force: float, of: float) -> float:
-    return float(force / of) if of != 0.0 else 0.0
-
-
-def _add_level(g: nx.DiGraph, r: FlexibleResult, piers: dict[PierId, Pier]) -> None:
-    into = {lid: 0.0 for lid in r.line_forces}
-    for piece in r.pieces:
-        node = f"piece:{piece.id}"
-        g.add_node(
-            node,
-            kind="piece",
-            level=r.level,
-            force=piece.force,
-            supported=bool(piece.supports),
-        )
-        for lid, f in piece.shares:
-            g.add_edge(node, f"line:{lid}", force=f, share=_share(f, piece.force))
-            into[lid] += f
-    for pl in r.point_loads:
-        node = f"transfer:{pl.source_pier}"
-        g.add_node(
-            node,
-            kind="transfer",
-            level=r.level,
-            force=pl.force,
-            source_pier=pl.source_pier,
-        )
-        g.add_edge(f"pier:{pl.source_pier}", node, force=pl.force)
-        for lid, f in pl.shares:
-            g.add_edge(node, f"line:{lid}", force=f, share=_share(f, pl.force))
-            into[lid] += f
-    for lid, force in r.line_forces.items():
-        g.add_node(f"line:{lid}", kind="line", level=r.level, force=force)
-        direct = force - into[lid]
-        if abs(direct) > _TINY * max(abs(r.applied), 1.0):
-            g.add_node(f"mass:{lid}", kind="mass", level=r.level, force=direct)
-            g.add_edge(f"mass:{lid}", f"line:{lid}", force=direct, share=1.0)
-    for pid, f in r.pier_forces.items():
-        p = piers.get(pid)
-        if p is None:
-            msg = f"pier {pid} of level {r.level!r} is not among the given piers"
-            raise AllocationError(msg)
-        g.add_node(f"pier:{pid}", kind="pier", level=r.level, force=f, guid=p.guid)
-        line_force = r.line_forces[p.line]
-        g.add_edge(
-            f"line:{p.line}", f"pier:{pid}", force=f, share=_share(f, line_force)
-        )
 
 
 def build_load_path(
@@ -126,25 +86,16 @@ def build_load_path(
     Raises:
         AllocationError: Results of two directions, or a pier not in ``piers``.
     """
+    return _digraph(record_load_path(flexible_results, piers))
+
+
+def _digraph(record: LoadPathRecord) -> nx.DiGraph:
+    """The record as a ``DiGraph``: same nodes, edges, attributes and orders."""
     import networkx as nx
 
-    directions = {r.direction for r in flexible_results}
-    if len(directions) > 1:
-        msg = (
-            f"load path: results of {sorted(directions)}; build one graph per direction"
-        )
-        raise AllocationError(msg)
-    g = nx.DiGraph(direction=next(iter(directions), None))
-    by_id = {p.id: p for p in piers}
-    for r in flexible_results:
-        _add_level(g, r, by_id)
-    for node, data in g.nodes(data=True):
-        if "kind" not in data:
-            msg = f"load path: {node} is named by a transfer but has no result"
-            raise AllocationError(msg)
-    for a, _b, data in g.edges(data=True):
-        if "share" not in data:  # pier -> transfer, once the pier's force is known
-            data["share"] = _share(data["force"], g.nodes[a]["force"])
+    g = nx.DiGraph(direction=record.direction)
+    g.add_nodes_from(record.nodes.items())  # the graph copies each attribute dict
+    g.add_edges_from((u, v, data) for (u, v), data in record.edges.items())
     return g
 
 
@@ -154,13 +105,15 @@ class LoadPathGraphs(Mapping[Direction, "nx.DiGraph"]):
     Common practice (DESIGN.md item 10), as :func:`build_load_path`. The graphs
     explain the forces (the report's load-path column); nothing in the allocation
     or the checks reads them, so a run that does not ask never builds them.
+    :meth:`node_count`, :meth:`level_totals` and :meth:`explain_all` answer from the
+    same nodes and edges held as plain dicts, without building a graph.
 
     Args:
         flexible_results: Flexible results of both directions.
         piers: The piers (with ``line`` set) the results name.
     """
 
-    __slots__ = ("_built", "_flexible", "_piers")
+    __slots__ = ("_built", "_flexible", "_piers", "_records")
 
     def __init__(
         self, flexible_results: Sequence[FlexibleResult], piers: Sequence[Pier]
@@ -168,17 +121,34 @@ class LoadPathGraphs(Mapping[Direction, "nx.DiGraph"]):
         self._flexible = tuple(flexible_results)
         self._piers = tuple(piers)
         self._built: dict[Direction, nx.DiGraph] = {}
+        self._records: dict[Direction, LoadPathRecord] = {}
 
-    def __getitem__(self, direction: Direction) -> nx.DiGraph:
+    def __reduce__(self) -> tuple:
+        """Pickle the inputs only; graphs and records are built again when asked."""
+        return (type(self), (self._flexible, self._piers))
+
+    def __setstate__(self, state: tuple) -> None:
+        """Read a pickle written before ``__reduce__`` (slots state, no records)."""
+        _, slots = state
+        self.__init__(slots["_flexible"], slots["_piers"])
+
+    def _record(self, direction: Direction) -> tuple[Direction, LoadPathRecord]:
         try:
             d = Direction(direction)
         except ValueError:
             raise KeyError(direction) from None
-        graph = self._built.get(d)
-        if graph is None:
-            graph = self._built[d] = build_load_path(
+        record = self._records.get(d)
+        if record is None:
+            record = self._records[d] = record_load_path(
                 [f for f in self._flexible if f.direction is d], self._piers
             )
+        return d, record
+
+    def __getitem__(self, direction: Direction) -> nx.DiGraph:
+        d, record = self._record(direction)
+        graph = self._built.get(d)
+        if graph is None:
+            graph = self._built[d] = _digraph(record)
         return graph
 
     def __iter__(self) -> Iterator[Direction]:
@@ -190,6 +160,52 @@ class LoadPathGraphs(Mapping[Direction, "nx.DiGraph"]):
     def __repr__(self) -> str:
         built = ", ".join(d.value for d in self._built) or "none"
         return f"LoadPathGraphs(X, Y; built: {built})"
+
+    def node_count(self, direction: Direction) -> int:
+        """``self[direction].number_of_nodes()``, without building the graph.
+
+        Raises:
+            KeyError: Not a direction.
+        """
+        return len(self._record(direction)[1].nodes)
+
+    def level_totals(self, direction: Direction) -> dict[PierId, dict[str, float]]:
+        """``level_totals(self[direction])``, equal float for float, without networkx.
+
+        Common practice: as :func:`level_totals`.
+
+        Raises:
+            KeyError: Not a direction.
+        """
+        record = self._record(direction)[1]
+        order = topological_order(record)
+        if order is None:  # a cycle: networkx says so, as the graph functions do
+            return level_totals(self[direction])
+        nodes = record.nodes
+        comp = compose(nodes, record.pred, order, by_level=True)
+        return {
+            n.split(":", 1)[1]: comp[n] for n in order if nodes[n]["kind"] == "pier"
+        }
+
+    def explain_all(self, direction: Direction) -> dict[PierId, list[Contribution]]:
+        """``explain_all(self[direction])``, equal item for item, without networkx.
+
+        Common practice: as :func:`explain_pier`.
+
+        Raises:
+            KeyError: Not a direction.
+        """
+        record = self._record(direction)[1]
+        order = topological_order(record)
+        if order is None:
+            return explain_all(self[direction])
+        nodes = record.nodes
+        comp = compose(nodes, record.pred, order)
+        return {
+            n.split(":", 1)[1]: _contributions(nodes, comp[n])
+            for n, data in nodes.items()
+            if data["kind"] == "pier"
+        }
 
 
 def explain_pier(graph: nx.DiGraph, pier_id: PierId) -> list[Contribution]:
@@ -216,8 +232,9 @@ def explain_pier(graph: nx.DiGraph, pier_id: PierId) -> list[Contribution]:
         msg = f"pier {pier_id} is not in the load-path graph"
         raise AllocationError(msg)
     nodes = nx.ancestors(graph, target) | {target}
-    comp = _compose(graph, nx.topological_sort(graph.subgraph(nodes)))
-    return _contributions(graph, comp[target])
+    order = nx.topological_sort(graph.subgraph(nodes))
+    comp = compose(graph.nodes, graph.pred, order)
+    return _contributions(graph.nodes, comp[target])
 
 
 def explain_all(graph: nx.DiGraph) -> dict[PierId, list[Contribution]]:
@@ -235,46 +252,26 @@ def explain_all(graph: nx.DiGraph) -> dict[PierId, list[Contribution]]:
     """
     import networkx as nx
 
-    comp = _compose(graph, nx.topological_sort(graph))
+    comp = compose(graph.nodes, graph.pred, nx.topological_sort(graph))
     return {
-        n.split(":", 1)[1]: _contributions(graph, comp[n])
+        n.split(":", 1)[1]: _contributions(graph.nodes, comp[n])
         for n, data in graph.nodes(data=True)
         if data["kind"] == "pier"
     }
 
 
-def _compose(
-    graph: nx.DiGraph, order, by_level: bool = False
-) -> dict[str, dict[str, float]]:
-    """Node -> source -> force reaching it, over nodes in topological order.
-
-    A source is the piece or mass node, or with ``by_level`` its level's name.
-    """
-    comp: dict[str, dict[str, float]] = {}
-    for n in order:
-        data = graph.nodes[n]
-        if data["kind"] in ("piece", "mass"):
-            comp[n] = {(data["level"] if by_level else n): float(data["force"])}
-            continue
-        acc: dict[str, float] = {}
-        for p in graph.predecessors(n):
-            s = graph.edges[p, n]["share"]
-            for src, f in comp[p].items():
-                acc[src] = acc.get(src, 0.0) + s * f
-        comp[n] = acc
-    return comp
-
-
-def _contributions(graph: nx.DiGraph, flows: dict[str, float]) -> list[Contribution]:
+def _contributions(
+    nodes: Mapping[str, Mapping], flows: dict[str, float]
+) -> list[Contribution]:
     out = []
     for src, f in flows.items():
-        data = graph.nodes[src]
+        data = nodes[src]
         name = src.split(":", 1)[1] if data["kind"] == "piece" else src
         out.append(
             Contribution(
                 level=data["level"],
                 source=name,
-                share=_share(f, data["force"]),
+                share=share(f, data["force"]),
                 force=float(f),
             )
         )
@@ -297,7 +294,7 @@ def level_totals(graph: nx.DiGraph) -> dict[PierId, dict[str, float]]:
     """
     import networkx as nx
 
-    comp = _compose(graph, nx.topological_sort(graph), by_level=True)
+    comp = compose(graph.nodes, graph.pred, nx.topological_sort(graph), by_level=True)
     return {
         n.split(":", 1)[1]: comp[n] for n in comp if graph.nodes[n]["kind"] == "pier"
     }

@@ -235,12 +235,22 @@ def to_display(
     Raises:
         ValueError: Unknown quantity kind.
     """
+    try:
+        factor, label = _display_unit(quantity, system)
+    except TypeError:  # unhashable arguments: the checks below say what is wrong
+        factor, label = _display_unit.__wrapped__(quantity, system)
+    return float(value_si) * factor, label
+
+
+@functools.lru_cache(maxsize=64)
+def _display_unit(quantity: str, system: DisplayUnits) -> tuple[float, str]:
+    """(SI-to-display multiplier, label) of a quantity kind; errors as ``to_display``."""
     if quantity not in DISPLAY_QUANTITIES:
         msg = f"unknown quantity kind {quantity!r}; one of {sorted(DISPLAY_QUANTITIES)}"
         raise ValueError(msg)
     si_units, imperial, si = DISPLAY_QUANTITIES[quantity]
     units, label = imperial if DisplayUnits(system) is DisplayUnits.IMPERIAL else si
-    return float(value_si) * _factor(si_units, units), label
+    return _factor(si_units, units), label
 
 
 @functools.lru_cache(maxsize=64)
@@ -266,6 +276,14 @@ def format_value(
         The number and its unit label, separated by a space.
     """
     value, label = to_display(value_si, quantity, system)
+    if (
+        type(digits) is int
+        and 1 <= digits <= 15
+        and 10.0 ** (digits - 1) <= abs(value) < 1e300
+    ):
+        # From 10**(digits-1) up the rounded value has no decimals to keep: the text
+        # the general path below gives, without its rounding and logarithm.
+        return f"{value:.0f} {label}"
     if not math.isfinite(value):
         return f"{value} {label}"
     if value == 0:

@@ -15,8 +15,11 @@ from checks.report._formats import Formats
 from checks.report._html_parts import LoadPaths, html_id
 from checks.report.plan_svg import PlanLine, PlanWall, legend_svg, plan_svg
 from checks.units import to_display
+from ifc_bridge.model import Direction
 
 __all__ = ["LevelContext", "level_section", "wall_anchor"]
+
+_DIRECTION = {d: d.value for d in Direction}  # the enum's ``.value`` is slow to read
 
 
 def wall_anchor(guid: str, level: str) -> str:
@@ -43,6 +46,8 @@ class LevelContext:
         piers: Level name -> its piers, in allocation order.
         lines: Level name -> its lines, in allocation order.
         load_paths: Load-path cells of the piers.
+        row_ids: Pier id -> HTML id of its table row.
+        anchors: (GlobalId, level) -> :func:`wall_anchor` of every pier's wall.
     """
 
     run: Any
@@ -51,14 +56,21 @@ class LevelContext:
     piers: dict[str, list]
     lines: dict[str, list]
     load_paths: LoadPaths
+    row_ids: dict[str, str]
+    anchors: dict[tuple[str, str], str]
 
     @classmethod
     def of(cls, run, fm: Formats) -> LevelContext:
-        """Index the run's piers and lines by level."""
+        """Index the run's piers and lines by level; name each row and wall once."""
         alloc = run.allocation
         piers: dict[str, list] = {}
+        row_ids: dict[str, str] = {}
+        anchors: dict[tuple[str, str], str] = {}
         for p in alloc.piers:
             piers.setdefault(p.level, []).append(p)
+            row_ids[p.id] = html_id("pier", p.id)
+            if (p.guid, p.level) not in anchors:
+                anchors[p.guid, p.level] = wall_anchor(p.guid, p.level)
         lines: dict[str, list] = {}
         for ln in alloc.lines:
             lines.setdefault(ln.level, []).append(ln)
@@ -69,6 +81,8 @@ class LevelContext:
             piers=piers,
             lines=lines,
             load_paths=LoadPaths(alloc.graphs, fm),
+            row_ids=row_ids,
+            anchors=anchors,
         )
 
 
@@ -105,10 +119,11 @@ def _tags(groups) -> dict[str, str]:
 
 def _plan(ctx: LevelContext, level, groups, tags) -> str:
     alloc, checks, run = ctx.run.allocation, ctx.checks, ctx.run
+    anchors, row_ids = ctx.anchors, ctx.row_ids
     walls = [
         PlanWall(
-            group=wall_anchor(p.guid, p.level),
-            row=html_id("pier", p.id),
+            group=anchors[p.guid, p.level],
+            row=row_ids[p.id],
             guid=p.guid,
             label=p.name,
             tag=tags[p.guid],
@@ -186,31 +201,58 @@ def _line_row(ln, alloc, fm: Formats) -> str:
     )
 
 
-def _pier_row(p, ctx: LevelContext, tags, *, first: bool) -> str:
+def _pier_rows(ctx: LevelContext, piers: list, tags: dict[str, str]) -> list[str]:
+    """The table rows of the piers of one line, in order along the line.
+
+    Common practice: a pier's row gives its wall (name and GlobalId on the wall's
+    first pier), forces per method, unit shear, capacity, ratio and load path.
+    Model and config strings are escaped; tags, directions, ids and numbers
+    formatted here hold no markup, so they go in as they are.
+    """
     fm = ctx.fm
-    f, esc = fm.force, fm.escape
-    v = lambda x: "-" if x is None else fm.force_per_length(x)  # noqa: E731
-    env, c = ctx.run.allocation.envelope.get(p.id), ctx.checks.get(p.id)
-    dcr = getattr(c, "dcr", None)
-    gov = f"{env.governing_method.value} {env.governing_case}" if env else "-"
-    ratio = "-" if dcr is None else f"{dcr:.2f}"
-    name = (
-        f"{esc(p.name)}<br><small>{esc(p.guid)}</small>"
-        if first
-        else "<small>(same wall)</small>"
-    )
-    return (
-        f'<tr id="{html_id("pier", p.id)}"><td class="t"><a href="#{wall_anchor(p.guid, p.level)}">'
-        f"{esc(tags[p.guid])}</a></td><td class='t'>{name}</td><td>{p.pier}</td>"
-        f"<td>{esc(p.direction.value if p.direction else '-')}</td>"
-        f"<td class='t'>{esc(p.assembly or '-')}</td>"
-        f"<td>{fm.length(p.length)}</td>"
-        f"<td>{f(env.flexible) if env else '-'}</td><td>{f(env.rigid) if env else '-'}</td>"
-        f"<td><b>{f(env.envelope) if env else '-'}</b></td><td class='g'>{esc(gov)}</td>"
-        f"<td>{v(getattr(c, 'unit_shear', None))}</td><td>{v(getattr(c, 'capacity', None))}</td>"
-        f"<td{' class=over' if dcr is not None and dcr >= 1.0 else ''}>{ratio}</td>"
-        f"<td class='lp'>{ctx.load_paths.cell(p)}</td></tr>"
-    )
+    f, m, fpl, esc = fm.force, fm.length, fm.force_per_length, fm.escape
+    envelopes, checks = ctx.run.allocation.envelope, ctx.checks
+    cell, anchors, row_ids = ctx.load_paths.cell, ctx.anchors, ctx.row_ids
+    rows, prev = [], None
+    for p in piers:
+        env, c = envelopes.get(p.id), checks.get(p.id)
+        if env is None:
+            flexible = rigid = envelope = gov = "-"
+        else:
+            flexible, rigid, envelope = f(env.flexible), f(env.rigid), f(env.envelope)
+            gov = esc(f"{env.governing_method.value} {env.governing_case}")
+        shear, capacity, dcr = (
+            (None, None, None)
+            if c is None
+            else (
+                getattr(c, "unit_shear", None),
+                getattr(c, "capacity", None),
+                getattr(c, "dcr", None),
+            )
+        )
+        if prev != p.guid:
+            name = f"{esc(p.name)}<br><small>{esc(p.guid)}</small>"
+            prev = p.guid
+        else:
+            name = "<small>(same wall)</small>"
+        rows.append(
+            f'<tr id="{row_ids[p.id]}"><td class="t"><a href="#'
+            f'{anchors[p.guid, p.level]}">{tags[p.guid]}</a></td>'
+            f"<td class='t'>{name}</td><td>{p.pier}</td>"
+            f"<td>{_DIRECTION.get(p.direction, '-')}</td>"
+            f"<td class='t'>{esc(p.assembly or '-')}</td><td>{m(p.length)}</td>"
+            f"<td>{flexible}</td><td>{rigid}</td><td><b>{envelope}</b></td>"
+            f"<td class='g'>{gov}</td>"
+            f"<td>{'-' if shear is None else fpl(shear)}</td>"
+            f"<td>{'-' if capacity is None else fpl(capacity)}</td>"
+            + (
+                "<td>-</td>"
+                if dcr is None
+                else f"<td{' class=over' if dcr >= 1.0 else ''}>{dcr:.2f}</td>"
+            )
+            + f"<td class='lp'>{cell(p)}</td></tr>"
+        )
+    return rows
 
 
 def level_section(ctx: LevelContext, level) -> str:
@@ -233,10 +275,7 @@ def level_section(ctx: LevelContext, level) -> str:
     rows = []
     for ln, piers in groups:
         rows.append(_line_row(ln, alloc, fm))
-        rows += [
-            _pier_row(p, ctx, tags, first=i == 0 or piers[i - 1].guid != p.guid)
-            for i, p in enumerate(piers)
-        ]
+        rows += _pier_rows(ctx, piers, tags)
     table = (
         "<table class='walls'><thead><tr><th class='t'>Tag</th><th class='t'>Wall</th>"
         "<th>Pier</th><th>Dir</th><th class='t'>Assembly</th><th>Length</th>"

@@ -10,7 +10,7 @@ from dataclasses import dataclass, field
 from html import escape
 
 from allocation.asce7_16 import s12_8_elf
-from allocation.load_path import explain_all, level_totals
+from allocation.load_path import LoadPathGraphs, explain_all, level_totals
 from checks.project import DisplayUnits
 from checks.report._formats import Formats
 from checks.units import format_value
@@ -156,7 +156,10 @@ class LoadPaths:
     Common practice (DESIGN.md item 10): the load path from
     :func:`allocation.load_path.level_totals`, computed once per graph (one pass for
     all piers) and, on graphs small enough to list every source,
-    :func:`allocation.load_path.explain_all`.
+    :func:`allocation.load_path.explain_all`. A :class:`LoadPathGraphs` answers both
+    without building its networkx graphs; any other mapping of graphs is asked
+    through the functions. Piers with equal flows (often those of one line) share
+    the text of their per-level totals, formatted once.
 
     Attributes:
         graphs: ``Allocation.graphs`` (load-path graph per direction).
@@ -167,33 +170,49 @@ class LoadPaths:
     fm: Formats
     _totals: dict = field(default_factory=dict)
     _explained: dict = field(default_factory=dict)
+    _heads: dict = field(default_factory=dict)
 
-    def _totals_of(self, direction, graph) -> dict:
-        hit = self._totals.get(direction)
-        if hit is None:
-            hit = self._totals[direction] = level_totals(graph)
+    def _totals_of(self, direction) -> dict | None:
+        """Pier id -> level -> force of the direction's graph; None without a graph."""
+        if direction in self._totals:
+            return self._totals[direction]
+        graphs, hit = self.graphs, None
+        if isinstance(graphs, LoadPathGraphs):
+            hit = graphs.level_totals(direction)
+        elif (graph := graphs.get(direction)) is not None:
+            hit = level_totals(graph)
+        self._totals[direction] = hit
         return hit
 
-    def _explained_of(self, direction, graph) -> dict:
-        hit = self._explained.get(direction)
-        if hit is None:
-            hit = self._explained[direction] = explain_all(graph)
+    def _explained_of(self, direction) -> dict | None:
+        """Pier id -> contributions, None when the graph is too large to list them."""
+        if direction in self._explained:
+            return self._explained[direction]
+        graphs, hit = self.graphs, None
+        if isinstance(graphs, LoadPathGraphs):
+            if graphs.node_count(direction) <= _DETAIL_NODES:
+                hit = graphs.explain_all(direction)
+        elif graphs[direction].number_of_nodes() <= _DETAIL_NODES:
+            hit = explain_all(graphs[direction])
+        self._explained[direction] = hit
         return hit
 
     def cell(self, pier) -> str:
         """HTML text for the pier's table cell ("-" when it has no load path)."""
         direction = pier.direction
-        graph = self.graphs.get(direction) if direction is not None else None
-        if graph is None:
-            return "-"
-        by_level = self._totals_of(direction, graph).get(pier.id)
+        totals = self._totals_of(direction) if direction is not None else None
+        by_level = totals.get(pier.id) if totals is not None else None
         if not by_level:
             return "-"
         f, esc = self.fm.force, self.fm.escape
-        head = "; ".join([f"{esc(lv)} {f(v)}" for lv, v in sorted(by_level.items())])
-        if graph.number_of_nodes() > _DETAIL_NODES:
-            return f"<span>{head}</span>"
-        parts = self._explained_of(direction, graph).get(pier.id)
+        key = tuple(by_level.items())  # piers of one line often carry equal flows
+        head = self._heads.get(key)
+        if head is None:
+            head = self._heads[key] = "; ".join(
+                [f"{esc(lv)} {f(v)}" for lv, v in sorted(key)]
+            )
+        explained = self._explained_of(direction)
+        parts = explained.get(pier.id) if explained is not None else None
         if parts is None:
             return f"<span>{head}</span>"
         items = "".join(

@@ -71,13 +71,18 @@ _DEFS = (
 _ORDER = {Severity.ERROR: 0, Severity.WARNING: 1, Severity.INFO: 2}
 
 
-def _link_targets(run) -> dict[tuple[str, str], str]:
-    """(GlobalId, level) -> id of its mark in the report; level "" = any level."""
+def _link_targets(
+    run, anchors: dict[tuple[str, str], str]
+) -> dict[tuple[str, str], str]:
+    """(GlobalId, level) -> id of its mark in the report; level "" = any level.
+
+    ``anchors`` is ``LevelContext.anchors``: each pier's wall mark, in pier order.
+    """
     out: dict[tuple[str, str], str] = {}
-    for p in run.allocation.piers:
-        if (p.guid, p.level) not in out:
-            anchor = out[(p.guid, p.level)] = wall_anchor(p.guid, p.level)
-            out.setdefault((p.guid, ""), anchor)
+    for (guid, level), anchor in anchors.items():
+        if (guid, level) not in out:
+            out[guid, level] = anchor
+            out.setdefault((guid, ""), anchor)
     levels = {lv.level for lv in run.allocation.levels}
     for d in run.model.diaphragms:
         if d.level in levels:
@@ -89,8 +94,8 @@ def _link_targets(run) -> dict[tuple[str, str], str]:
     return out
 
 
-def _findings(run) -> str:
-    targets, items = _link_targets(run), []
+def _findings(run, anchors: dict[tuple[str, str], str]) -> str:
+    targets, items = _link_targets(run, anchors), []
     names = {p.guid: p.name for p in run.allocation.piers}
     counts = {s: 0 for s in _ORDER}
     for fd in sorted(run.findings, key=lambda x: (_ORDER[x.severity], x.level, x.id)):
@@ -172,7 +177,7 @@ def render_report(run, *, system: DisplayUnits) -> str:
             '<a href="#assumptions">Assumptions</a></nav>',
             seismic_section(run, system),
             *(level_section(ctx, lv) for lv in levels),
-            _findings(run),
+            _findings(run, ctx.anchors),
             '<section id="assumptions"><h2>Assumptions</h2><ul>'
             + "".join(f"<li>{escape(x)}</li>" for x in _assumptions(run, system))
             + "</ul>"

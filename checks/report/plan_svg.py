@@ -223,7 +223,10 @@ def _walls(walls: list[PlanWall], fr: _Frame, centre: tuple[float, float]) -> li
     out = []
     for gid, piers in groups.items():
         first = piers[0]
-        worst = max((p.dcr for p in piers if p.dcr is not None), default=None)
+        if len(piers) == 1:  # most walls have no opening: one pier
+            worst = first.dcr
+        else:
+            worst = max((p.dcr for p in piers if p.dcr is not None), default=None)
         ratio = "no capacity" if worst is None else f"DCR {worst:.2f}"
         guid = escape(first.guid)
         parts = [
@@ -254,12 +257,16 @@ def _tag(
     worst: float | None,
 ) -> str:
     """The wall's tag beside its longest pier, on the side of the centre of mass."""
-    i = max(
-        range(len(piers)),
-        key=lambda k: (
-            (piers[k].end[0] - piers[k].start[0]) ** 2
-            + (piers[k].end[1] - piers[k].start[1]) ** 2
-        ),
+    i = (
+        0
+        if len(piers) == 1
+        else max(
+            range(len(piers)),
+            key=lambda k: (
+                (piers[k].end[0] - piers[k].start[0]) ** 2
+                + (piers[k].end[1] - piers[k].start[1]) ** 2
+            ),
+        )
     )
     p = piers[i]
     ax, ay, bx, by = ends[i]

@@ -10,6 +10,8 @@ from __future__ import annotations
 
 import gc
 import math
+import pickle
+import sys
 
 import pytest
 from hypothesis import given, settings
@@ -138,6 +140,52 @@ def test_load_path_mapping_builds_each_graph_once_as_build_load_path():
     assert list(g.nodes(data=True)) == list(fresh.nodes(data=True))
     assert list(g.edges(data=True)) == list(fresh.edges(data=True))
     assert graphs[Direction.Y].number_of_nodes() == 0  # no Y results
+
+
+def _exact(totals: dict) -> str:
+    """Pier -> level -> force as text that tells every float apart (``-0.0``, too)."""
+    return repr(sorted((pid, sorted(by.items())) for pid, by in totals.items()))
+
+
+def test_load_path_mapping_answers_as_the_graph_functions_without_networkx(
+    monkeypatch,
+):
+    from allocation.load_path import explain_all, level_totals
+    from tests.allocation.test_load_path import _two_levels
+
+    results, piers = _two_levels()
+    graphs = LoadPathGraphs(results, piers)
+    monkeypatch.setitem(sys.modules, "networkx", None)  # importing it now fails
+    answers = {
+        d: (graphs.node_count(d), graphs.level_totals(d), graphs.explain_all(d))
+        for d in Direction
+    }
+    assert repr(graphs).endswith("built: none)")
+    monkeypatch.undo()
+    for d, (count, totals, explained) in answers.items():
+        g = build_load_path([r for r in results if r.direction is d], piers)
+        assert count == g.number_of_nodes()
+        assert _exact(totals) == _exact(level_totals(g))
+        assert explained == explain_all(g)
+        assert list(explained) == list(explain_all(g))
+    assert answers[Direction.X][1]  # the X graph has piers to explain
+
+
+def test_load_path_mapping_pickles_its_inputs_not_its_graphs():
+    from tests.allocation.test_load_path import _two_levels
+
+    results, piers = _two_levels()
+    graphs = LoadPathGraphs(results, piers)
+    built = graphs[Direction.X]
+    back = pickle.loads(pickle.dumps(graphs))
+    assert repr(back).endswith("built: none)")
+    assert list(back[Direction.X].edges(data=True)) == list(built.edges(data=True))
+    # a pickle made before ``__reduce__`` holds the slots; it still reads
+    old = LoadPathGraphs.__new__(LoadPathGraphs)
+    old.__setstate__(
+        (None, {"_built": {}, "_flexible": tuple(results), "_piers": tuple(piers)})
+    )
+    assert list(old[Direction.X].nodes(data=True)) == list(built.nodes(data=True))
 
 
 coordinate = st.one_of(

@@ -205,14 +205,21 @@ def test_explain_all_equals_explaining_each_pier_alone() -> None:
     # the whole graph must give each pier exactly (bit for bit) its own trace
     from pathlib import Path
 
-    from allocation.load_path import explain_all
+    from allocation.load_path import explain_all, level_totals
     from checks.pipeline import check_model
 
     demo = Path(__file__).resolve().parents[2] / "sample_models"
     run = check_model(demo / "demo_building.ifc", demo / "demo.toml")
-    for direction, graph in run.allocation.graphs.items():
+    graphs = run.allocation.graphs
+    for direction, graph in graphs.items():
         every = explain_all(graph)
         piers = [n.split(":", 1)[1] for n in graph if n.startswith("pier:")]
         assert sorted(every) == sorted(piers), direction
         for pier in piers:
             assert every[pier] == explain_pier(graph, pier)
+        # the mapping's own answers (plain dicts, no graph) are the same, bit for bit
+        assert graphs.explain_all(direction) == every
+        totals, mine = level_totals(graph), graphs.level_totals(direction)
+        assert totals.keys() == mine.keys()
+        for pier, by_level in totals.items():
+            assert repr(sorted(mine[pier].items())) == repr(sorted(by_level.items()))

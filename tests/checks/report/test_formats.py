@@ -75,3 +75,45 @@ def test_html_id_follows_the_rule(parts):
 def test_html_id_examples():
     assert html_id("wall", "2s3$BrU", "Level 2") == "wall-2s3_24_BrU_7c_Level_20_2"
     assert html_id("level", "Étage") == "level-_c9_tage"
+
+
+def _figures_rule(value: float, label: str, digits: int) -> str:
+    """``format_value``'s rule written out step by step, with no shortcut.
+
+    Common practice: round to ``digits`` significant figures, then print as many
+    decimals as those figures need (none once the value is 10**(digits-1) or more).
+    """
+    if not math.isfinite(value):
+        return f"{value} {label}"
+    if value == 0:
+        return f"0 {label}"
+    rounded = float(f"{value:.{digits}g}")
+    if rounded == 0:
+        return f"0 {label}"
+    if not math.isfinite(rounded):
+        return f"{value:.{digits}g} {label}"
+    decimals = min(12, max(0, digits - 1 - math.floor(math.log10(abs(rounded)))))
+    text = f"{value:.{decimals}f}"
+    return f"{'0' if text.lstrip('-').strip('0.') == '' else text} {label}"
+
+
+def _near_a_power_of_ten(k: int) -> st.SearchStrategy[float]:
+    power = 10.0**k
+    return st.sampled_from(
+        [power, math.nextafter(power, 0.0), math.nextafter(power, math.inf)]
+    ) | st.floats(0.999 * power, 1.001 * power)
+
+
+# whole numbers take a shortcut in format_value from 10**(digits-1) up: around each
+# power of ten, and anywhere else, the text is the one the full rule gives
+_AROUND = st.integers(-3, 16).flatmap(_near_a_power_of_ten)
+
+
+@given(
+    value=_AROUND | _VALUES | _AROUND.map(lambda v: -v),
+    digits=st.integers(1, 15),
+)
+def test_format_value_follows_the_figures_rule(value, digits):
+    # metres shown in metres: the display value is the SI value itself (factor 1)
+    got = format_value(value, "length", DisplayUnits.SI, digits=digits)
+    assert got == _figures_rule(float(value), "m", digits)

@@ -7,20 +7,24 @@ to print it to PDF. Skips when no Chromium is installed.
 
 from __future__ import annotations
 
+import dataclasses
 import re
 import shutil
 import subprocess
+import sys
 from collections import Counter
 from pathlib import Path
 
 import lxml.html
 import pytest
 
-from allocation.load_path import explain_pier
+from allocation.load_path import LoadPathGraphs, build_load_path, explain_pier
 from checks.project import DisplayUnits
+from checks.report import _html_parts
 from checks.report._html_parts import html_id
 from checks.report.html_report import render_report, wall_anchor, write_report
 from checks.units import format_value
+from ifc_bridge.model import Direction
 from tests.checks.report._demo_run import HOSTILE_NAMES, hostile_run
 
 _CHROMIUM = shutil.which("chromium") or shutil.which("chromium-browser")
@@ -166,6 +170,30 @@ def test_load_path_lists_every_contribution(browser, run):
         parts = explain_pier(graphs[p.direction], p.id)
         row = dom.get_element_by_id(html_id("pier", p.id))
         assert len(row.xpath(".//td[contains(@class,'lp')]//li")) == len(parts)
+
+
+@pytest.mark.parametrize("detail_nodes", [3000, 0])  # every source listed, or totals
+def test_load_path_cells_need_no_graph(run, monkeypatch, detail_nodes):
+    # the lazy mapping answers from plain dicts: the same page as from built graphs
+    monkeypatch.setattr(_html_parts, "_DETAIL_NODES", detail_nodes)
+    alloc = run.allocation
+    lazy = LoadPathGraphs(alloc.flexible, alloc.piers)
+    built = {
+        d: build_load_path([f for f in alloc.flexible if f.direction is d], alloc.piers)
+        for d in Direction
+    }
+
+    def page(graphs) -> str:
+        changed = dataclasses.replace(alloc, graphs=graphs)
+        return render_report(
+            dataclasses.replace(run, allocation=changed), system=DisplayUnits.IMPERIAL
+        )
+
+    expected = page(built)
+    assert ("<details>" in expected) == (detail_nodes > 0)
+    monkeypatch.setitem(sys.modules, "networkx", None)  # importing it now fails
+    assert page(lazy) == expected
+    assert repr(lazy).endswith("built: none)")
 
 
 def test_self_contained(report):
