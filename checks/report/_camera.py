@@ -13,6 +13,9 @@ import math
 from collections.abc import Sequence
 from dataclasses import dataclass, field
 
+import numpy as np
+from numpy.typing import NDArray
+
 from ifc_bridge.model import BuildingModel, WallSegment
 
 __all__ = ["Box", "Camera", "element_box", "frame_box"]
@@ -76,48 +79,61 @@ class Camera:
 
 
 @dataclass(frozen=True, slots=True)
-class _Extent:
-    """Coordinates of the corners of what a box must hold, one list per axis [m].
-
-    Each corner's value appears in the order of the corners (repeats dropped), so
-    ``min`` and ``max`` pick the same value as over the corners themselves.
-    """
-
-    xs: list[float] = field(default_factory=list)
-    ys: list[float] = field(default_factory=list)
-    zs: list[float] = field(default_factory=list)
-
-    def add_bounds(self, bounds: tuple[float, float, float, float], z: float) -> None:
-        x0, y0, x1, y1 = bounds
-        self.xs.extend((x0, x1))
-        self.ys.extend((y0, y1))
-        self.zs.extend((z, z))
-
-    def box(self) -> Box | None:
-        if not self.xs:
-            return None
-        xs, ys, zs = self.xs, self.ys, self.zs
-        return Box(lo=(min(xs), min(ys), min(zs)), hi=(max(xs), max(ys), max(zs)))
-
-
-@dataclass(frozen=True, slots=True)
 class _ModelIndex:
-    """A model's walls by GlobalId and by level, and its diaphragms by slab GlobalId.
+    """A model's walls and diaphragms as corner arrays, keyed by GlobalId and level.
+
+    ``wall_lo[i]`` / ``wall_hi[i]`` are the least and greatest corner coordinate of
+    ``model.walls[i]`` (centreline ends, +/- half the thickness, base and top) [m];
+    ``slab_lo[j]`` / ``slab_hi[j]`` those of ``model.diaphragms[j]`` (plan bounds at
+    its elevation). A box is the min / max of the rows it holds: the same value as
+    over the corners themselves, whatever their order.
 
     Attributes:
-        walls: GlobalId -> (position in ``model.walls``, segment), in model order.
-        levels: Level name -> its wall segments, in model order.
-        slabs: Slab GlobalId -> positions in ``model.diaphragms``, ascending.
+        walls: GlobalId -> rows of its segments in ``model.walls``, ascending.
+        levels: Level name -> rows of the wall segments supporting it, ascending.
+        slabs: Slab GlobalId -> rows in ``model.diaphragms``, ascending.
+        wall_guid: Row -> GlobalId of the wall segment.
+        wall_level: Row -> level name of the wall segment.
+        wall_lo: Least corner (x, y, z) per wall row [m].
+        wall_hi: Greatest corner (x, y, z) per wall row [m].
+        slab_lo: Least corner (x, y, z) per diaphragm row [m].
+        slab_hi: Greatest corner (x, y, z) per diaphragm row [m].
         level_boxes: Level name -> box of its walls and diaphragms, filled when asked.
     """
 
-    walls: dict[str, list[tuple[int, WallSegment]]]
-    levels: dict[str, list[WallSegment]]
+    walls: dict[str, list[int]]
+    levels: dict[str, list[int]]
     slabs: dict[str, list[int]]
+    wall_guid: list[str]
+    wall_level: list[str]
+    wall_lo: NDArray[np.float64]
+    wall_hi: NDArray[np.float64]
+    slab_lo: NDArray[np.float64]
+    slab_hi: NDArray[np.float64]
     level_boxes: dict[str, Box | None] = field(default_factory=dict)
 
 
 _INDEX: dict[int, tuple[BuildingModel, _ModelIndex]] = {}
+_MANY = 64  # GlobalIds from which the walls are matched by a pass over the model
+
+
+def _corner_arrays(
+    walls: Sequence[WallSegment],
+) -> tuple[NDArray[np.float64], NDArray[np.float64]]:
+    """Least and greatest corner (x, y, z) of each wall segment, shape (n, 3) [m]."""
+    rows = np.array(
+        [
+            (*w.start, *w.end, w.thickness / 2.0, w.base_elevation, w.top_elevation)
+            for w in walls
+        ],
+        dtype=np.float64,
+    ).reshape(-1, 7)
+    sx, sy, ex, ey, half, base, top = rows.T
+    xs = (sx - half, sx + half, ex - half, ex + half)
+    ys = (sy - half, sy + half, ey - half, ey + half)
+    lo = np.stack([np.minimum.reduce(xs), np.minimum.reduce(ys), np.minimum(base, top)])
+    hi = np.stack([np.maximum.reduce(xs), np.maximum.reduce(ys), np.maximum(base, top)])
+    return lo.T.copy(), hi.T.copy()
 
 
 def _index(model: BuildingModel) -> _ModelIndex:
@@ -125,41 +141,57 @@ def _index(model: BuildingModel) -> _ModelIndex:
     hit = _INDEX.get(id(model))
     if hit is not None and hit[0] is model:
         return hit[1]
-    walls: dict[str, list[tuple[int, WallSegment]]] = {}
-    levels: dict[str, list[WallSegment]] = {}
+    walls: dict[str, list[int]] = {}
+    levels: dict[str, list[int]] = {}
     for i, w in enumerate(model.walls):
-        walls.setdefault(w.guid, []).append((i, w))
-        levels.setdefault(w.level, []).append(w)
+        walls.setdefault(w.guid, []).append(i)
+        levels.setdefault(w.level, []).append(i)
     slabs: dict[str, list[int]] = {}
     for i, d in enumerate(model.diaphragms):
         for g in dict.fromkeys(d.slab_guids):
             slabs.setdefault(g, []).append(i)
-    index = _ModelIndex(walls=walls, levels=levels, slabs=slabs)
+    wall_lo, wall_hi = _corner_arrays(model.walls)
+    outline = np.array(
+        [(*d.polygon.bounds, d.elevation) for d in model.diaphragms], dtype=np.float64
+    ).reshape(-1, 5)
+    x0, y0, x1, y1, z = outline.T
+    index = _ModelIndex(
+        walls=walls,
+        levels=levels,
+        slabs=slabs,
+        wall_guid=[w.guid for w in model.walls],
+        wall_level=[w.level for w in model.walls],
+        wall_lo=wall_lo,
+        wall_hi=wall_hi,
+        slab_lo=np.stack([np.minimum(x0, x1), np.minimum(y0, y1), z]).T.copy(),
+        slab_hi=np.stack([np.maximum(x0, x1), np.maximum(y0, y1), z]).T.copy(),
+    )
     _INDEX.clear()  # keep only the latest model alive
     _INDEX[id(model)] = (model, index)
     return index
 
 
-def _walls_named(index: _ModelIndex, guids: set[str]) -> list[WallSegment]:
-    """Wall segments whose GlobalId is one of ``guids``, in model order."""
-    hits = [hit for g in guids for hit in index.walls.get(g, ())]
-    if len(guids) > 1:
-        hits.sort(key=lambda hit: hit[0])
-    return [w for _, w in hits]
+def _prefer_level(index: _ModelIndex, rows: list[int], level: str) -> list[int]:
+    """The rows of walls supporting ``level``, or all ``rows`` when there are none."""
+    names = index.wall_level
+    return [r for r in rows if names[r] == level] or rows
 
 
-def _wall_extent(walls: Sequence[WallSegment], level: str) -> _Extent:
-    """Corners of the wall segments, preferring those under ``level``."""
-    on_level = [w for w in walls if w.level == level]
-    ext = _Extent()
-    xs, ys, zs = ext.xs, ext.ys, ext.zs
-    for w in on_level or walls:
-        half = w.thickness / 2.0
-        (sx, sy), (ex, ey) = w.start, w.end
-        xs.extend((sx - half, sx + half, ex - half, ex + half))
-        ys.extend((sy - half, sy + half, ey - half, ey + half))
-        zs.extend((w.base_elevation, w.top_elevation))
-    return ext
+def _box(index: _ModelIndex, walls: list[int], slabs: list[int]) -> Box | None:
+    """Box of the wall rows and diaphragm rows, or None when both are empty."""
+    los, his = [], []
+    if walls:
+        at = np.asarray(walls, dtype=np.intp)
+        los.append(index.wall_lo[at].min(axis=0))
+        his.append(index.wall_hi[at].max(axis=0))
+    if slabs:
+        at = np.asarray(slabs, dtype=np.intp)
+        los.append(index.slab_lo[at].min(axis=0))
+        his.append(index.slab_hi[at].max(axis=0))
+    if not los:
+        return None
+    lo, hi = np.minimum.reduce(los).tolist(), np.maximum.reduce(his).tolist()
+    return Box(lo=(lo[0], lo[1], lo[2]), hi=(hi[0], hi[1], hi[2]))
 
 
 def _level_elevation(model: BuildingModel, level: str) -> float:
@@ -178,8 +210,9 @@ def element_box(
 ) -> Box:
     """Box of the elements a finding is about, with sensible fall-backs.
 
-    Common practice: frame the walls named by GlobalId; else the slabs' diaphragm
-    outline; else the finding's plan point; else the whole level; else the model.
+    Common practice: frame the walls named by GlobalId (those supporting the
+    finding's level when any do); else the slabs' diaphragm outline; else the
+    finding's plan point; else the whole level; else the model.
 
     Args:
         model: The structural model.
@@ -192,11 +225,17 @@ def element_box(
     """
     index = _index(model)
     wanted = set(guids)
-    ext = _wall_extent(_walls_named(index, wanted), level)
-    for i in sorted({i for g in wanted for i in index.slabs.get(g, ())}):
-        d = model.diaphragms[i]
-        ext.add_bounds(d.polygon.bounds, d.elevation)
-    box = ext.box()
+    if len(wanted) > _MANY:  # one membership test per wall beats a lookup per GUID
+        hit = (g in wanted for g in index.wall_guid)
+        named = np.fromiter(hit, dtype=bool, count=len(index.wall_guid))
+        walls = np.flatnonzero(named).tolist()
+    else:
+        walls = [r for g in wanted for r in index.walls.get(g, ())]
+    if len(wanted) > len(index.slabs):
+        slabs = [r for g, at in index.slabs.items() if g in wanted for r in at]
+    else:
+        slabs = [r for g in wanted for r in index.slabs.get(g, ())]
+    box = _box(index, _prefer_level(index, walls, level), slabs)
     if box is not None:
         return box
     z = _level_elevation(model, level)
@@ -215,11 +254,13 @@ def _level_box(model: BuildingModel, index: _ModelIndex, level: str) -> Box | No
     """Box of every wall and diaphragm of the level (of the model when ``""``)."""
     if level in index.level_boxes:
         return index.level_boxes[level]
-    ext = _wall_extent(index.levels.get(level, []) if level else model.walls, level)
-    for d in model.diaphragms:
-        if not level or d.level == level:
-            ext.add_bounds(d.polygon.bounds, d.elevation)
-    box = index.level_boxes[level] = ext.box()
+    if level:
+        walls = index.levels.get(level, [])
+        slabs = [i for i, d in enumerate(model.diaphragms) if d.level == level]
+    else:
+        walls = _prefer_level(index, list(range(len(model.walls))), level)
+        slabs = list(range(len(model.diaphragms)))
+    box = index.level_boxes[level] = _box(index, walls, slabs)
     return box
 
 

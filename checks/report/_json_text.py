@@ -11,7 +11,6 @@ from __future__ import annotations
 
 import json
 import json.encoder
-import re
 from collections.abc import Callable
 from typing import Any
 
@@ -139,7 +138,6 @@ class _Writer:
 
 _MIN_RECORDS = 8  # lists this long of same-shaped dicts take the fast path
 _SCALARS = (str, int, float, bool, type(None))
-_STARTS_CONTAINER = re.compile(r"^[\[{]", re.MULTILINE)
 
 
 def _shape(record: dict) -> tuple | None:
@@ -235,21 +233,76 @@ def _records(items: list | tuple, depth: int, w: _Writer) -> str | None:
                 flat += v.values()
             at = i + 1
         flat += values[at:]
-    # one scalar per line: an encoded scalar never holds a raw newline, and a container
-    # in a scalar's place shows as a line starting with [ or {, or a wrong count
-    text = w.flat(flat)[1:-1]
-    scalars = text.split("\n") if flat else []
-    if len(scalars) != len(flat) or _STARTS_CONTAINER.search(text):
-        return None
     n = _width(shape)
-    if n * len(items) != len(scalars):
+    if n * len(items) != len(flat):
+        return None
+    scalars = _column_texts(flat, n, w) or _texts(flat, w)
+    if scalars is None:
         return None
     template = _template(first, shape, depth + 1, w)
     inner = w.newline(depth + 1)
-    body = ("," + inner).join(
-        [template % tuple(scalars[k : k + n]) for k in range(0, len(scalars), n)]
-    )
+    body = ("," + inner).join([template] * len(items)) % tuple(scalars)
     return "[" + inner + body + w.newline(depth) + "]"
+
+
+def _texts(values: list, w: _Writer) -> list[str] | None:
+    """JSON text of each scalar, in one call to the C encoder; None for a container.
+
+    One scalar per line: an encoded scalar never holds a raw newline, and a container
+    in a scalar's place shows as a line starting with [ or {, or a wrong count.
+    """
+    text = w.flat(values)[1:-1]
+    texts = text.split("\n") if values else []
+    if len(texts) != len(values) or _starts_container(text):
+        return None
+    return texts
+
+
+_KEYED = {str, int, float}  # equal values of one of these types have equal text
+
+
+def _column_texts(flat: list, n: int, w: _Writer) -> list[str] | None:
+    """:func:`_texts` of records of ``n`` scalars, each repeated value encoded once.
+
+    Column by column: a column of one type (str, int or float) whose values repeat
+    is encoded once per distinct value, floats being most of the encoder's time. Zero
+    floats are not shared (0.0 and -0.0 are equal but print apart). None for anything
+    unusual (a container, a value JSON refuses): the caller then encodes in document
+    order, so the same exception comes first.
+    """
+    out = [""] * len(flat)
+    for j in range(n):
+        column = flat[j::n]
+        texts = None
+        kinds = set(map(type, column))
+        if len(kinds) == 1 and kinds <= _KEYED:
+            distinct = list(set(column))
+            if 2 * len(distinct) <= len(column) and not (
+                float in kinds and 0.0 in distinct
+            ):
+                once = _safe_texts(distinct, w)
+                if once is None:
+                    return None
+                lookup = dict(zip(distinct, once, strict=True))
+                texts = [lookup[v] for v in column]
+        texts = texts or _safe_texts(column, w)
+        if texts is None:
+            return None
+        out[j::n] = texts
+    return out
+
+
+def _safe_texts(values: list, w: _Writer) -> list[str] | None:
+    """:func:`_texts`, or None where the encoder refuses a value."""
+    try:
+        return _texts(values, w)
+    except (ValueError, TypeError, OverflowError, RecursionError):
+        return None
+
+
+def _starts_container(text: str) -> bool:
+    """True when a line of ``text`` starts with ``[`` or ``{`` (a container's text)."""
+    return text.startswith(("[", "{")) or "\n[" in text or "\n{" in text
 
 
 def _key_text(key: Any) -> str:

@@ -326,7 +326,8 @@ def topic_from_finding(
     Returns:
         The topic.
     """
-    guid = topic_guid(finding.id)
+    data = finding_data(finding)
+    guid = topic_guid(data.finding_id)  # the id hashes every GlobalId: once will do
     viewpoint = viewpoint_for(finding, model, guid=derived_guid(guid, "viewpoint/1"))
     description = f"{finding.description}\n{numbers_text(finding)}".strip()
     if len(finding.guids) > MAX_SELECTED:
@@ -345,7 +346,7 @@ def topic_from_finding(
         creation_date=as_utc(now),
         creation_author=author,
         viewpoints=(viewpoint,),
-        finding=finding_data(finding),
+        finding=data,
     )
 
 

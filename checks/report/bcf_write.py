@@ -297,6 +297,7 @@ def write_bcf(
     previous: Topics | None = None,
     now: dt.datetime | None = None,
     current: Mapping[str, str] | None = None,
+    fresh: Topics | None = None,
 ) -> None:
     """Write the findings as a BCF-XML zip, updating the previous run's topics if given.
 
@@ -314,6 +315,8 @@ def write_bcf(
         previous: Topics read from the previous run's BCF (or JSON), or None.
         current: GlobalId -> the revised model's numbers, quoted in close comments.
         now: Date of the run; taken as UTC if naive, the clock if None.
+        fresh: The topics ``topics_from_findings(findings, ...)`` gives for these
+            arguments, when the caller has them already; used without ``previous``.
 
     Raises:
         BcfError: Unknown version, or the previous file cannot be read safely.
@@ -348,6 +351,8 @@ def write_bcf(
             )
             return
         topics = apply_plan(previous, plan, model=model).topics
+    elif fresh is not None:
+        topics = fresh.topics
     else:
         topics = topics_from_findings(
             findings, model=model, author=author, now=now

@@ -26,12 +26,22 @@ def _unit_label(quantity: str, system: DisplayUnits) -> str:
 def _shown(quantity: str, system: DisplayUnits) -> Callable[[float | None], str]:
     """SI value -> its text in display units (six significant figures), or ``""``.
 
-    The display factor is looked up once per column (``to_display`` is linear).
+    The display factor is looked up once per column (``to_display`` is linear), and
+    the text of each value is formatted once: lengths and capacities repeat from wall
+    to wall. Zeros (``-0`` and ``0`` are equal keys) and NaN are not remembered.
     """
     factor, _ = to_display(1.0, quantity, system)
+    memo: dict[float, str] = {}
 
     def shown(value: float | None) -> str:
-        return "" if value is None else f"{float(value) * factor:.6g}"
+        if value is None:
+            return ""
+        text = memo.get(value)
+        if text is None:
+            text = f"{float(value) * factor:.6g}"
+            if value and value == value:
+                memo[value] = text
+        return text
 
     return shown
 

@@ -11,11 +11,14 @@ from __future__ import annotations
 import io
 import math
 from collections.abc import Sequence
+from dataclasses import dataclass
 
+import numpy as np
+from numpy.typing import NDArray
 from PIL import Image, ImageDraw, ImageFont
 
 from checks.errors import BcfError
-from ifc_bridge.model import BuildingModel, WallSegment
+from ifc_bridge.model import BuildingModel
 
 __all__ = ["HIGHLIGHT_RGB", "plan_snapshot_png"]
 
@@ -35,17 +38,65 @@ def _font() -> ImageFont.ImageFont | ImageFont.FreeTypeFont:
     return ImageFont.load_default()
 
 
+@dataclass(frozen=True, slots=True)
+class _Walls:
+    """A model's wall segments as arrays, in model order (built once per model).
+
+    Attributes:
+        guids: GlobalId per row.
+        levels: Level name -> rows of the segments supporting it, ascending.
+        ends: Plan start and end per row, columns x0, y0, x1, y1 [m].
+        thickness: Thickness per row [m].
+    """
+
+    guids: list[str]
+    levels: dict[str, NDArray[np.intp]]
+    ends: NDArray[np.float64]
+    thickness: NDArray[np.float64]
+
+
+_WALLS: dict[int, tuple[BuildingModel, _Walls]] = {}
+
+
+def _walls_of(model: BuildingModel) -> _Walls:
+    """The wall arrays of a model, built on its first snapshot."""
+    hit = _WALLS.get(id(model))
+    if hit is not None and hit[0] is model:
+        return hit[1]
+    rows: dict[str, list[int]] = {}
+    for i, w in enumerate(model.walls):
+        rows.setdefault(w.level, []).append(i)
+    walls = _Walls(
+        guids=[w.guid for w in model.walls],
+        levels={k: np.asarray(v, dtype=np.intp) for k, v in rows.items()},
+        ends=np.array(
+            [(*w.start, *w.end) for w in model.walls], dtype=np.float64
+        ).reshape(-1, 4),
+        thickness=np.array([w.thickness for w in model.walls], dtype=np.float64),
+    )
+    _WALLS.clear()  # keep only the latest model alive
+    _WALLS[id(model)] = (model, walls)
+    return walls
+
+
 def _walls_to_draw(
-    model: BuildingModel, level: str, highlight: set[str]
-) -> tuple[list[WallSegment], list[WallSegment]]:
-    """(grey walls, highlighted walls) of the story supporting ``level``."""
-    story = list(model.walls_supporting(level)) if level else list(model.walls)
-    grey = [w for w in story if w.guid not in highlight]
-    marked = [w for w in story if w.guid in highlight]
-    found = {w.guid for w in marked}
+    walls: _Walls, level: str, highlight: set[str]
+) -> tuple[NDArray[np.intp], NDArray[np.intp]]:
+    """(grey rows, highlighted rows) of the story supporting ``level``, drawing order."""
+    n = len(walls.guids)
+    story = walls.levels.get(level, np.empty(0, np.intp)) if level else np.arange(n)
+    lit = np.fromiter((g in highlight for g in walls.guids), dtype=bool, count=n)
+    grey, marked = story[~lit[story]], story[lit[story]]
     # a finding may name a wall of another story (a discontinuity): draw it too
-    marked += [w for w in model.walls if w.guid in highlight and w.guid not in found]
-    return grey, marked
+    found = {walls.guids[i] for i in marked.tolist()}
+    in_story = np.zeros(n, dtype=bool)
+    in_story[story] = True
+    others = [
+        i
+        for i in np.flatnonzero(lit & ~in_story).tolist()
+        if walls.guids[i] not in found
+    ]
+    return grey, np.concatenate([marked, np.asarray(others, dtype=np.intp)])
 
 
 def _nice_length(target: float) -> float:
@@ -82,19 +133,29 @@ class _Plan:
             self.h / 2.0 - (y - self.cy) * self.scale,
         )
 
+    def px_array(
+        self, x: NDArray[np.float64], y: NDArray[np.float64]
+    ) -> tuple[list[float], list[float]]:
+        """:meth:`px` of many points, the same arithmetic element by element."""
+        return (
+            (self.w / 2.0 + (x - self.cx) * self.scale).tolist(),
+            (self.h / 2.0 - (y - self.cy) * self.scale).tolist(),
+        )
+
 
 def _bounds(
-    model: BuildingModel, level: str, walls: Sequence[WallSegment]
+    model: BuildingModel, level: str, ends: NDArray[np.float64]
 ) -> tuple[float, float, float, float]:
+    """Plan box of the level's diaphragms and the wall ends drawn (x0, y0, x1, y1)."""
     xs: list[float] = []
     ys: list[float] = []
     for d in model.diaphragms_of(level):
         x0, y0, x1, y1 = d.polygon.bounds
         xs += [x0, x1]
         ys += [y0, y1]
-    for w in walls:
-        xs += [w.start[0], w.end[0]]
-        ys += [w.start[1], w.end[1]]
+    if len(ends):
+        xs += [float(ends[:, ::2].min()), float(ends[:, ::2].max())]
+        ys += [float(ends[:, 1::2].min()), float(ends[:, 1::2].max())]
     if not xs:
         return (-5.0, -5.0, 5.0, 5.0)
     return (min(xs), min(ys), max(xs), max(ys))
@@ -119,13 +180,22 @@ def _draw_diaphragms(
 def _draw_walls(
     draw: ImageDraw.ImageDraw,
     plan: _Plan,
-    walls: Sequence[WallSegment],
+    walls: tuple[NDArray[np.float64], NDArray[np.float64]],
     rgb: tuple[int, int, int],
     min_px: int,
 ) -> None:
-    for w in walls:
-        width = max(min_px, round(w.thickness * plan.scale))
-        draw.line([plan.px(*w.start), plan.px(*w.end)], fill=rgb, width=width)
+    """Each wall a line as thick as the wall (at least ``min_px``), in row order.
+
+    ``walls`` is (ends x0, y0, x1, y1 [m], thickness [m]) of the rows to draw.
+    """
+    ends, thickness = walls
+    x0, y0 = plan.px_array(ends[:, 0], ends[:, 1])
+    x1, y1 = plan.px_array(ends[:, 2], ends[:, 3])
+    # round() and rint both round half to even
+    widths = np.maximum(np.rint(thickness * plan.scale), min_px).astype(np.int64)
+    line = draw.line
+    for ax, ay, bx, by, width in zip(x0, y0, x1, y1, widths.tolist(), strict=True):
+        line([(ax, ay), (bx, by)], fill=rgb, width=width)
 
 
 def _draw_axes(draw: ImageDraw.ImageDraw, plan: _Plan) -> None:
@@ -202,13 +272,15 @@ def plan_snapshot_png(
     if hit is not None and hit[0] is model:
         return hit[1]
     marked_ids = set(highlight)
-    grey, marked = _walls_to_draw(model, level, marked_ids)
-    plan = _Plan(_bounds(model, level, grey + marked), size)
+    walls = _walls_of(model)
+    grey, marked = _walls_to_draw(walls, level, marked_ids)
+    drawn = np.concatenate([grey, marked])
+    plan = _Plan(_bounds(model, level, walls.ends[drawn]), size)
     image = Image.new("RGB", size, _BACKGROUND)
     draw = ImageDraw.Draw(image)
     _draw_diaphragms(draw, plan, model, level, marked_ids)
-    _draw_walls(draw, plan, grey, _WALL_RGB, 2)
-    _draw_walls(draw, plan, marked, HIGHLIGHT_RGB, 6)
+    for rows, rgb, min_px in ((grey, _WALL_RGB, 2), (marked, HIGHLIGHT_RGB, 6)):
+        _draw_walls(draw, plan, (walls.ends[rows], walls.thickness[rows]), rgb, min_px)
     _draw_axes(draw, plan)
     _draw_scale_bar(draw, plan)
     out = io.BytesIO()

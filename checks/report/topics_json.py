@@ -16,6 +16,7 @@ zip. The finding's numbers sit under the one extra key ``shearline``, SI units i
 from __future__ import annotations
 
 import base64
+import dataclasses
 import datetime as dt
 import json
 import logging
@@ -184,6 +185,7 @@ def topics_to_json(
     previous: Topics | None = None,
     now: dt.datetime | None = None,
     current: Mapping[str, str] | None = None,
+    fresh: Topics | None = None,
 ) -> Topics:
     """Write the findings' topics as JSON, merged with the previous run's if given.
 
@@ -200,6 +202,8 @@ def topics_to_json(
         ifc_filename: Name of the IFC file checked, quoted in re-check comments.
         previous: Topics of the previous run, or None.
         now: Date of the run; taken as UTC if naive, the clock if None.
+        fresh: The topics ``topics_from_findings(findings, ...)`` gives for these
+            arguments, when the caller has them already; used without ``previous``.
 
     Returns:
         The topics written.
@@ -208,7 +212,13 @@ def topics_to_json(
         OutputError: The file cannot be written.
     """
     now = as_utc(now)
-    if previous is None:
+    if previous is None and fresh is not None:
+        topics = dataclasses.replace(
+            fresh,
+            bcf_version=version,
+            project_name=project_name or model.project_name,
+        )
+    elif previous is None:
         topics = topics_from_findings(
             findings,
             model=model,

@@ -13,9 +13,12 @@ import dataclasses
 import itertools
 
 import pytest
+from hypothesis import given, settings
+from hypothesis import strategies as st
 
 from checks.report._camera import Box, element_box
 from tests.checks.report._demo_run import demo_run
+from tests.checks.report._tiny_model import tiny_model
 
 
 def _corners(walls, level):
@@ -77,6 +80,8 @@ def _cases(model):
         tuple(reversed(walls[:4])),
         *((g,) for g in slabs[:3]),
         (walls[0], slabs[0]) if walls and slabs else (),
+        # more GlobalIds than the index looks up one by one
+        (*walls[::2], *slabs, *(f"not-in-the-model-{i}" for i in range(70))),
     ]
     yield from itertools.product(guid_sets, levels, (None, (3.0, -2.0)))
 
@@ -119,3 +124,34 @@ def test_a_second_model_is_not_framed_from_the_first_ones_index(shift):
     for m in (model, moved, model):
         assert element_box(m, [guid]) == reference_box(m, [guid])
         assert element_box(m, []) == reference_box(m, [])
+
+
+_COORD = st.floats(-1e4, 1e4) | st.sampled_from([0.0, -0.0, 1.0, -1.0])
+_WALL = st.tuples(
+    _COORD,
+    _COORD,
+    st.sampled_from([(3.0, 0.0), (0.0, -2.5), (-1e-3, 1e-3), (7.5, 7.5)]),
+    st.floats(1e-3, 2.0),
+    st.floats(-50.0, 50.0),
+)
+
+
+@settings(max_examples=40, deadline=None)
+@given(placed=st.lists(_WALL, min_size=8, max_size=8))
+def test_boxes_of_walls_placed_anywhere(placed):
+    model = tiny_model()
+    walls = tuple(
+        dataclasses.replace(
+            w,
+            start=(x, y),
+            end=(x + dx, y + dy),
+            thickness=t,
+            base_elevation=z,
+            top_elevation=z + 3.0,
+        )
+        for w, (x, y, (dx, dy), t, z) in zip(model.walls, placed, strict=True)
+    )
+    model = dataclasses.replace(model, walls=walls)
+    for guids, level, location in _cases(model):
+        got = element_box(model, guids, level=level, location=location)
+        assert got == reference_box(model, guids, level=level, location=location)

@@ -7,11 +7,15 @@ the project's pint registry.
 from __future__ import annotations
 
 import csv
+import math
 
 import pytest
+from hypothesis import given
+from hypothesis import strategies as st
 
 from checks.project import DisplayUnits
-from checks.report.csv_tables import write_lines_csv, write_walls_csv
+from checks.report.csv_tables import _shown, write_lines_csv, write_walls_csv
+from checks.units import to_display
 from tests.checks.report._demo_run import demo_run
 
 KIP = 4448.2216152605  # N per kip, NIST SP 811 B.8 (1 lbf = 4.448 221 615 260 5 N)
@@ -109,3 +113,20 @@ def test_markup_in_names_kept_verbatim(tmp_path):
         )
     )
     assert set(HOSTILE_NAMES) <= {row["name"] for row in rows}  # CSV is data, not HTML
+
+
+# a few values, drawn again and again as a column's repeated lengths would be
+_CELL = st.sampled_from(
+    [0.0, -0.0, 1.0, 1, True, -2.5, 1e-300, 3.0, math.nan, math.inf, None]
+) | st.floats(allow_nan=True)
+
+
+@pytest.mark.parametrize("system", list(DisplayUnits))
+@given(column=st.lists(_CELL, max_size=40))
+def test_each_cell_reads_as_its_value_formatted_alone(system, column):
+    # the column's remembered texts change nothing: -0 stays -0, nan stays nan
+    factor, _ = to_display(1.0, "force", system)
+    shown = _shown("force", system)
+    for value in column:
+        alone = "" if value is None else f"{float(value) * factor:.6g}"
+        assert shown(value) == alone

@@ -74,6 +74,45 @@ def test_lists_of_records_match_the_standard_library(rows):
     assert dumps_indented(doc) == _reference(doc)
 
 
+# few values, so that columns repeat: equal keys with different text (0.0 and -0.0,
+# 1 and 1.0 and True) must keep their own text
+_REPEATED = st.sampled_from(
+    [0.0, -0.0, 1.0, 1, True, False, None, "a", "é", 2.5, -2.5, 10**20, 1e300]
+)
+
+
+@settings(max_examples=200)
+@given(
+    rows=st.lists(st.lists(_REPEATED, min_size=6, max_size=6), min_size=8, max_size=30),
+    ensure_ascii=st.booleans(),
+)
+def test_records_of_repeated_values_match_the_standard_library(rows, ensure_ascii):
+    # reference: json.dumps; the fast path encodes a repeated column value once
+    records = [_record(r) for r in rows]
+    assert dumps_indented(records, ensure_ascii=ensure_ascii) == _reference(
+        records, ensure_ascii=ensure_ascii
+    )
+
+
+@pytest.mark.parametrize(
+    ("bad", "error"),
+    [
+        ({0: {"n": math.nan}, 3: {"guid": object()}}, ValueError),
+        ({0: {"guid": object()}, 3: {"n": math.nan}}, TypeError),
+        ({5: {"xy": [math.inf, 1.0]}}, ValueError),
+    ],
+)
+def test_the_first_refused_value_in_document_order_decides_the_error(bad, error):
+    # as json.dumps: the value met first raises, whatever column it sits in
+    rows = [_record(["g", 1, 0.5, 1.5, 2.0, 3.0]) for _ in range(10)]
+    for at, change in bad.items():
+        rows[at] = {**rows[at], **change}
+    with pytest.raises(error):
+        _reference(rows)
+    with pytest.raises(error):
+        dumps_indented(rows)
+
+
 @pytest.mark.parametrize(
     "odd",
     [

@@ -6,11 +6,12 @@ import io
 
 import numpy as np
 import pytest
-from PIL import Image
+from PIL import Image, ImageDraw
 
 from checks.errors import BcfError
 from checks.report import snapshot
 from checks.report.snapshot import HIGHLIGHT_RGB, plan_snapshot_png
+from tests.checks.report._demo_run import demo_run
 from tests.checks.report._tiny_model import gid, tiny_model
 
 
@@ -101,3 +102,75 @@ def test_scale_bar_length_is_a_1_2_5_step(
 def test_unknown_level_is_an_error():
     with pytest.raises(BcfError, match="'Level 9'"):
         plan_snapshot_png(tiny_model(), level="Level 9", highlight=[])
+
+
+def _reference_image(model, *, level, highlight, size=(800, 600)) -> Image.Image:
+    """The plan drawn wall by wall from the segments, as the module docstring reads.
+
+    The walls supporting the level (every wall for ``""``) in grey, then the marked
+    ones of that story, then marked walls of other stories, in model order; the view
+    fits the level's diaphragms and the walls drawn.
+    """
+    lit = set(highlight)
+    story = [w for w in model.walls if w.level == level] if level else model.walls
+    grey = [w for w in story if w.guid not in lit]
+    marked = [w for w in story if w.guid in lit]
+    found = {w.guid for w in marked}
+    marked += [w for w in model.walls if w.guid in lit and w.guid not in found]
+    xs, ys = [], []
+    for d in model.diaphragms_of(level):
+        x0, y0, x1, y1 = d.polygon.bounds
+        xs += [x0, x1]
+        ys += [y0, y1]
+    for w in grey + marked:
+        xs += [w.start[0], w.end[0]]
+        ys += [w.start[1], w.end[1]]
+    box = (min(xs), min(ys), max(xs), max(ys)) if xs else (-5.0, -5.0, 5.0, 5.0)
+    plan = snapshot._Plan(box, size)
+    image = Image.new("RGB", size, snapshot._BACKGROUND)
+    draw = ImageDraw.Draw(image)
+    snapshot._draw_diaphragms(draw, plan, model, level, lit)
+    for walls, rgb, min_px in (
+        (grey, snapshot._WALL_RGB, 2),
+        (marked, HIGHLIGHT_RGB, 6),
+    ):
+        for w in walls:
+            width = max(min_px, round(w.thickness * plan.scale))
+            draw.line([plan.px(*w.start), plan.px(*w.end)], fill=rgb, width=width)
+    snapshot._draw_axes(draw, plan)
+    snapshot._draw_scale_bar(draw, plan)
+    return image
+
+
+def _demo_cases():
+    model = demo_run().model
+    walls = [w.guid for w in model.walls]
+    slabs = [g for d in model.diaphragms for g in d.slab_guids]
+    other_story = [w.guid for w in model.walls if w.level != model.levels[-1].name]
+    guid_sets = [
+        (),
+        tuple(walls[:3]),
+        tuple(walls[::4]),
+        tuple(slabs[:1]),
+        tuple(walls),
+    ]
+    guid_sets += [tuple(other_story[:2])]  # drawn on a level they do not support
+    guid_sets += [f.guids for f in demo_run().findings]
+    levels = ["", *(lv.name for lv in model.levels)]
+    return [(level, guids) for level in levels for guids in dict.fromkeys(guid_sets)]
+
+
+@pytest.mark.parametrize(("level", "guids"), _demo_cases())
+def test_demo_snapshots_equal_the_plan_drawn_wall_by_wall(level, guids):
+    model = demo_run().model
+    got = _open(plan_snapshot_png(model, level=level, highlight=guids))
+    want = _reference_image(model, level=level, highlight=guids)
+    assert got.tobytes() == want.tobytes()  # same pixels; reference: per-wall drawing
+
+
+def test_a_second_model_is_not_drawn_from_the_first_ones_arrays():
+    model, revised = tiny_model(), tiny_model(south_wall_at_level_1=False)
+    for m in (model, revised, model):
+        got = _open(plan_snapshot_png(m, level="Level 2", highlight=[gid("Level 1/E")]))
+        want = _reference_image(m, level="Level 2", highlight=[gid("Level 1/E")])
+        assert got.tobytes() == want.tobytes()
