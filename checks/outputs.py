@@ -98,6 +98,14 @@ def _write_report(path: Path, run, system: DisplayUnits) -> Path:
     return write_report(path, run, system=system)
 
 
+def _write_findings(
+    run, out: Path, previous: str | os.PathLike | None, version: str
+) -> dict[str, Path]:
+    from checks.report.findings_out import write_findings
+
+    return write_findings(run, out, previous=previous, version=version)
+
+
 def _report_done(pending, part: Path, path: Path) -> Path:
     """Wait for the report (written here if the worker failed); move it in place."""
     pending.result()
@@ -117,23 +125,33 @@ def write_all(
 ) -> dict[str, Path]:
     """Write every output into ``out``; returns kind -> path.
 
-    ``report.html``, the largest, is written in a forked worker while this process
-    writes the others, on POSIX with two or more cores and a large enough model
-    (``parallel`` forces or forbids it); the files are the same either way.
+    ``report.html``, the largest, and the findings files are written in two forked
+    workers while this process writes the others, on POSIX with two or more cores
+    and a large enough model (``parallel`` forces or forbids it); the files are the
+    same either way.
 
     Raises:
         OutputError: A file cannot be written.
     """
     from checks.report.csv_tables import write_lines_csv, write_walls_csv
-    from checks.report.findings_out import write_findings
     from checks.report.results_json import write_results_json
     from ifc_bridge.gc_pause import collection_paused
+    from ifc_bridge.worker import can_fork, start_call
 
     checks = getattr(run.checks, "pier_checks", {})
     written: dict[str, Path] = {}
     report = out / "report.html"
+    if parallel is None:
+        parallel = len(run.allocation.piers) >= _PARALLEL_PIERS and can_fork()
     with collection_paused():
         part, pending = _report_beside(run, report, system=system, parallel=parallel)
+        # findings.bcf and findings.json in a second worker, behind the report (the
+        # longest); a failed worker is replaced by the same call here, which raises
+        # the error the user sees
+        findings = start_call(
+            "findings", _write_findings, run, out, previous, bcf_version,
+            parallel=parallel, nice=10,
+        )
         try:
             written["results"] = write_results_json(
                 out / "results.json",
@@ -147,14 +165,13 @@ def write_all(
             written["lines"] = write_lines_csv(
                 out / "lines.csv", run.allocation, system=system
             )
-            written.update(
-                write_findings(run, out, previous=previous, version=bcf_version)
-            )
+            written.update(findings.result())
             written["report"] = _report_done(pending, part, report)
         except OSError as exc:
             msg = f"{out}: cannot write outputs: {exc}"
             raise OutputError(msg) from exc
         finally:
+            findings.cancel()
             pending.cancel()
             with contextlib.suppress(OSError):
                 part.unlink(missing_ok=True)

@@ -193,6 +193,13 @@ def check_model(
             from checks.rules.run_rules import run_checks
 
             cfg = _config(config)
+            # the writers' modules (bcf-client, xsdata) load now too, beside the
+            # workers, not after the checks; write_outputs needs them next
+            import checks.report.csv_tables
+            import checks.report.findings_out
+            import checks.report.html_report
+            import checks.report.results_json
+
             clock.lap("import")
             model = load_model(model_path, cfg, progress, ifc=ifc, started=started)
             _check_storey_names(model, cfg)

@@ -1,6 +1,7 @@
-"""Writing the report in a forked worker gives the same files as writing it here.
+"""Writing the report and findings in forked workers gives the same files as here.
 
-Common practice: moving ``report.html`` into a worker process (``os.fork``, POSIX)
+Common practice: moving ``report.html`` and the findings files into worker processes
+(``os.fork``, POSIX)
 must change no byte of any output, a failed worker must leave the serial result, and
 an output that cannot be written is one clear error with no half-written file left.
 """
@@ -47,16 +48,36 @@ def test_forked_report_gives_the_same_files(tmp_path, forked_calls):
     serial = _write(tmp_path / "serial", parallel=False)
     started = forked_calls
     forked = _write(tmp_path / "forked", parallel=True)
-    assert started == ["report"]  # really written by a worker
+    assert started == ["report", "findings"]  # really written by workers
     assert list(forked) == list(serial)  # same kinds, same order
     for name in _SAME_BYTES:
         assert (tmp_path / "forked" / name).read_bytes() == (
             tmp_path / "serial" / name
         ).read_bytes(), name
     assert _undated_topics(forked["findings"]) == _undated_topics(serial["findings"])
+    assert forked["bcf"].is_file()
     assert sorted(p.name for p in (tmp_path / "forked").iterdir()) == sorted(
         p.name for p in (tmp_path / "serial").iterdir()
     )  # no .part file left behind
+
+
+@needs_fork
+def test_a_failed_findings_worker_is_replaced_by_the_serial_write(
+    tmp_path, monkeypatch
+):
+    parent, real = os.getpid(), outputs._write_findings
+
+    def fails_in_the_worker(run, out, previous, version):
+        if os.getpid() != parent:
+            msg = "worker failure for the test"
+            raise RuntimeError(msg)
+        return real(run, out, previous, version)
+
+    monkeypatch.setattr(outputs, "_write_findings", fails_in_the_worker)
+    serial = _write(tmp_path / "serial", parallel=False)
+    written = _write(tmp_path / "forked", parallel=True)
+    assert _undated_topics(written["findings"]) == _undated_topics(serial["findings"])
+    assert written["bcf"].stat().st_size > 0
 
 
 @needs_fork
