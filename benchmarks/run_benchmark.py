@@ -6,7 +6,8 @@ Run by hand, not in CI::
     python benchmarks/run_benchmark.py --sizes 5x50 40x250
 
 For each size (storeys x walls per storey) it generates a synthetic building (cached in
-``benchmarks/_generated/``), then times, each in a fresh process (best of ``--repeat``):
+``benchmarks/_generated/``), then times, each in a fresh process (best of ``--repeat``,
+the four kinds of run interleaved so that a drift of the machine's speed hits all):
 
 * ``open``: a bare ``ifcopenshell.open`` of the file;
 * ``floor``: a process that opens the file and runs one pass of ifcopenshell's fastest
@@ -53,11 +54,6 @@ def _child(args: list[str]) -> tuple[float, dict]:
     return elapsed, (json.loads(last[0]) if last[0].startswith("{") else {})
 
 
-def _best(args: list[str], repeat: int) -> tuple[float, dict]:
-    runs = [_child(args) for _ in range(repeat)]
-    return min(runs, key=lambda r: r[0])
-
-
 def _model(size: str) -> tuple[Path, int]:
     storeys, walls = (int(v) for v in size.lower().split("x"))
     path = HERE / "_generated" / f"building_{storeys}x{walls}.ifc"
@@ -99,26 +95,41 @@ def main() -> None:
     rows = []
     for size in a.sizes:
         path, walls = _model(size)
-        _, open_info = _best([str(HERE / "_floor.py"), str(path), "open"], a.repeat)
-        t_floor, floor = _best([str(HERE / "_floor.py"), str(path), "floor"], a.repeat)
         with tempfile.TemporaryDirectory() as out:
-            t_check, _ = _best(
-                [
-                    "-m",
-                    "checks.cli",
-                    "check",
-                    str(path),
-                    "--config",
-                    str(config),
-                    "--out",
-                    out,
-                    "-q",
-                ],
-                a.repeat,
-            )
-            _, stages = _best(
-                [str(HERE / "_stages.py"), str(path), str(config), out], a.repeat
-            )
+            check_args = [
+                "-m",
+                "checks.cli",
+                "check",
+                str(path),
+                "--config",
+                str(config),
+                "--out",
+                out,
+                "-q",
+            ]
+            # interleaved, so that a drift of the machine's speed hits all alike
+            runs: dict[str, list[tuple[float, dict]]] = {
+                "open": [],
+                "floor": [],
+                "check": [],
+                "stages": [],
+            }
+            for _ in range(a.repeat):
+                runs["open"].append(
+                    _child([str(HERE / "_floor.py"), str(path), "open"])
+                )
+                runs["floor"].append(
+                    _child([str(HERE / "_floor.py"), str(path), "floor"])
+                )
+                runs["check"].append(_child(check_args))
+                runs["stages"].append(
+                    _child([str(HERE / "_stages.py"), str(path), str(config), out])
+                )
+        best = {k: min(v, key=lambda r: r[0]) for k, v in runs.items()}
+        open_info = best["open"][1]
+        t_floor, floor = best["floor"]
+        t_check = best["check"][0]
+        stages = best["stages"][1]
         rows.append(
             (
                 size,
