@@ -205,8 +205,9 @@ def requirement_findings(ifc_file, *, source: str) -> list[Finding]:
     for s in doc.specifications:
         if s.status is not False:
             continue
+        # IfcRoot's first attribute is GlobalId (ISO 16739): read by position
         failed = sorted(
-            {e.GlobalId for e in s.failed_entities if hasattr(e, "GlobalId")}
+            {e.get_argument(0) for e in s.failed_entities if e.is_a("IfcRoot")}
         )
         reasons = sorted(
             {
