@@ -7,6 +7,7 @@ World X-Y, unit vector; counter-clockwise angles.
 
 from __future__ import annotations
 
+import math
 from dataclasses import dataclass
 
 import ifcopenshell
@@ -137,14 +138,19 @@ def axis_of(
         if pts is None or len(pts) < 2:
             return AxisInfo(direction=None, curved=curved)
         m = m0 if r["matrix"] is None else m0 @ r["matrix"]
-        local = np.asarray(
-            [(*p, 0.0, 1.0)[:4] if len(p) == 2 else (*p[:3], 1.0) for p in pts]
-        )
-        world = (m @ local.T).T[:, :2]
-        chord = world[-1] - world[0]
-        length = float(np.hypot(chord[0], chord[1]))
+        # the chord end to end, turned to world (plain floats: two points per wall)
+        (x0, y0, z0), (x1, y1, z1) = ((*p, 0.0)[:3] for p in (pts[0], pts[-1]))
+        ax, ay, az = x1 - x0, y1 - y0, z1 - z0
+        r0, r1 = m[0].tolist(), m[1].tolist()
+        cx = r0[0] * ax + r0[1] * ay + r0[2] * az
+        cy = r1[0] * ax + r1[1] * ay + r1[2] * az
+        length = math.hypot(cx, cy)
         if length <= 1e-9:
             return AxisInfo(direction=None, curved=curved)
-        d = (float(chord[0] / length), float(chord[1] / length))
-        return AxisInfo(direction=d, curved=curved or (len(pts) > 2 and _turns(world)))
+        if len(pts) > 2 and not curved:
+            local = np.asarray(
+                [(*p, 0.0, 1.0)[:4] if len(p) == 2 else (*p[:3], 1.0) for p in pts]
+            )
+            curved = _turns((m @ local.T).T[:, :2])
+        return AxisInfo(direction=(cx / length, cy / length), curved=curved)
     return AxisInfo(direction=None, curved=False)
