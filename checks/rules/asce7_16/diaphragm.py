@@ -15,8 +15,7 @@ below pass straight down and put no shear in the diaphragm.
   Ω0 in SDC C–F (§12.10.2.1, item 2: Fpx forces with overstrength). SDC from
   :mod:`seismic_design_category`; D is assumed where no spectral values are given.
 
-Severity policy: demands are info (no diaphragm capacity in the config yet). The aspect
-ratio of the pieces is :mod:`checks.rules.sdpws_2015.diaphragm_aspect_ratio`.
+Demands are info (no diaphragm capacity in the config yet); aspect ratios: sdpws_2015.
 """
 
 from __future__ import annotations
