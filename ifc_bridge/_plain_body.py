@@ -23,7 +23,7 @@ import numpy as np
 from numpy.typing import NDArray
 
 from ifc_bridge._direct import axis2placement
-from ifc_bridge._relations import attr
+from ifc_bridge._relations import attr, axis_and_body
 
 __all__ = ["PlainBody", "plain_body", "plain_item", "plain_solid"]
 
@@ -47,15 +47,8 @@ def plain_item(wall: ifcopenshell.entity_instance) -> ifcopenshell.entity_instan
     Returns:
         The extruded solid, or None: the kernel meshes the wall.
     """
-    shape = attr(wall, "Representation")
-    if shape is None:
-        return None
-    body = [
-        r
-        for r in attr(shape, "Representations") or ()
-        if (attr(r, "RepresentationIdentifier") or "") == "Body"
-    ]
-    return plain_solid(body[0]) if len(body) == 1 else None
+    _, body = axis_and_body(wall)
+    return plain_solid(body) if body is not None else None
 
 
 def plain_solid(

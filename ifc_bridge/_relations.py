@@ -19,7 +19,7 @@ from typing import Any
 import ifcopenshell
 import ifcopenshell.util.element
 
-__all__ = ["Relations", "attr", "build_relations"]
+__all__ = ["Relations", "attr", "axis_and_body", "build_relations"]
 
 _ABSENT = 0xFFFFFFFF  # get_argument_index of an attribute the entity does not have
 _INDEX: dict[str, dict[str, int]] = {}  # "IFC4.IfcWall" -> attribute -> position
@@ -52,6 +52,30 @@ def attr(inst: Entity, name: str, *default: Any) -> Any:
     if index == _ABSENT:
         return getattr(inst, name, *default)
     return inst.get_argument(index)
+
+
+def axis_and_body(inst: Entity) -> tuple[Entity | None, Entity | None]:
+    """An element's first 'Axis' and its only 'Body' shape representation.
+
+    Common practice: IfcProductDefinitionShape.Representations, identified by
+    RepresentationIdentifier (IFC 4.3 §8.18.3.10); one walk finds both.
+
+    Args:
+        inst: An IfcProduct.
+
+    Returns:
+        ``(axis, body)``; body None when there is no 'Body' or more than one.
+    """
+    shape = attr(inst, "Representation")
+    axis = body = None
+    bodies = 0
+    for rep in attr(shape, "Representations") if shape else ():
+        ident = attr(rep, "RepresentationIdentifier") or ""
+        if ident == "Axis" and axis is None:
+            axis = rep
+        elif ident == "Body":
+            body, bodies = rep, bodies + 1
+    return axis, body if bodies == 1 else None
 
 
 @dataclass(frozen=True, slots=True, kw_only=True)

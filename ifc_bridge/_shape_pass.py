@@ -20,7 +20,7 @@ import numpy as np
 from ifc_bridge._direct import placement_matrix
 from ifc_bridge._geometry import Mesh, mesh_packed, mesh_workers, unpack_meshes
 from ifc_bridge._plain_body import PlainBody, plain_body, plain_solid
-from ifc_bridge._relations import attr
+from ifc_bridge._relations import attr, axis_and_body
 from ifc_bridge._wall_axis import AxisInfo, axis_of
 from ifc_bridge.worker import PendingCall, start_call
 
@@ -62,9 +62,9 @@ def wall_shapes(
     shapes: list[WallShape] = []
     to_mesh: list[ifcopenshell.entity_instance] = []
     for wall in walls:
-        axis_rep, body_rep = _representations(wall)
+        axis_rep, body_rep = axis_and_body(wall)
         axis = axis_of(wall, axis_rep, cache)  # memoises the wall's placement
-        item = plain_item(wall, body_rep)
+        item = plain_solid(body_rep) if body_rep is not None else None
         body = None
         if item is not None:
             m = placement_matrix(attr(wall, "ObjectPlacement"), cache)
@@ -73,29 +73,6 @@ def wall_shapes(
             to_mesh.append(wall)
         shapes.append(WallShape(axis=axis, body=body))
     return shapes, to_mesh
-
-
-def _representations(
-    wall: ifcopenshell.entity_instance,
-) -> tuple[ifcopenshell.entity_instance | None, ifcopenshell.entity_instance | None]:
-    """The wall's first 'Axis' and its only 'Body' representation (None if not one)."""
-    shape = attr(wall, "Representation")
-    axis = body = None
-    bodies = 0
-    for rep in attr(shape, "Representations") if shape else ():
-        ident = attr(rep, "RepresentationIdentifier") or ""
-        if ident == "Axis" and axis is None:
-            axis = rep
-        elif ident == "Body":
-            body, bodies = rep, bodies + 1
-    return axis, body if bodies == 1 else None
-
-
-def plain_item(
-    wall: ifcopenshell.entity_instance, body: ifcopenshell.entity_instance | None
-) -> ifcopenshell.entity_instance | None:
-    """The wall's plain extruded solid (:func:`ifc_bridge._plain_body.plain_solid`)."""
-    return plain_solid(body) if body is not None else None
 
 
 def _pack_shapes(shapes: Sequence[WallShape]) -> dict:

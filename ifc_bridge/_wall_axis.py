@@ -18,7 +18,7 @@ from numpy.typing import NDArray
 from ifc_bridge._direct import placement_matrix
 from ifc_bridge._relations import attr
 
-__all__ = ["AxisInfo", "axis_of", "wall_axis"]
+__all__ = ["AxisInfo", "axis_of"]
 
 _TURN_TOL = np.radians(1.0)  # [rad]; a polyline turning more than this is not straight
 _CURVED_BASES = ("IfcCircle", "IfcEllipse", "IfcBSplineCurve", "IfcClothoid")
@@ -86,36 +86,15 @@ def _turns(pts: NDArray[np.float64]) -> bool:
     return bool((turn > _TURN_TOL).any())
 
 
-def wall_axis(
-    wall: ifcopenshell.entity_instance, cache: dict[int, NDArray[np.float64]]
-) -> AxisInfo:
-    """Direction and curvature of a wall from its 'Axis' representation.
-
-    Common practice: IfcWall 'Axis' shape representation, IFC 4.3 §5.1.3.43
-    (its reference line, offset from the centreline by the layer-set usage).
-
-    Args:
-        wall: The IfcWall.
-        cache: Placement memo.
-
-    Returns:
-        Axis information; ``direction`` None when there is no usable Axis.
-    """
-    shape = attr(wall, "Representation")
-    reps = [
-        r
-        for r in (attr(shape, "Representations") if shape else ())
-        if (attr(r, "RepresentationIdentifier") or "") == "Axis"
-    ]
-    return axis_of(wall, reps[0] if reps else None, cache)
-
-
 def axis_of(
     wall: ifcopenshell.entity_instance,
     rep: ifcopenshell.entity_instance | None,
     cache: dict[int, NDArray[np.float64]],
 ) -> AxisInfo:
-    """:func:`wall_axis` from the wall's 'Axis' representation, already found.
+    """Direction and curvature of a wall from its 'Axis' representation.
+
+    Common practice: IfcWall 'Axis' shape representation, IFC 4.3 §5.1.3.43
+    (its reference line, offset from the centreline by the layer-set usage).
 
     Args:
         wall: The IfcWall.

@@ -99,7 +99,7 @@ def test_shapes_and_meshes_from_the_workers_equal_the_serial_pass(monkeypatch) -
     ifc = open_ifc(DEMO)
     walls = ifc.by_type("IfcWall")
     slabs = ifc.by_type("IfcSlab")
-    monkeypatch.setattr(shape_pass, "plain_item", lambda wall, body: None)  # mesh them all
+    monkeypatch.setattr(shape_pass, "plain_solid", lambda body: None)  # mesh them all
     serial_shapes, serial = shape_pass.start_shapes(
         ifc, walls, slabs, 1.0, parallel=False
     ).result()
