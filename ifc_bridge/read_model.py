@@ -207,7 +207,10 @@ def read_model_file(
     """
     if progress is not None:
         progress("open", 1, 1)
-    if started is None or started.ifc is not ifc:
+    if started is not None and started.ifc is not ifc:
+        started.cancel()  # begun on another file: of no use here
+        started = None
+    if started is None:
         started = start_read(ifc, source)
     scale, storeys, walls = started.scale, started.storeys, started.walls
     relations, inserts = started.relations, started.inserts
