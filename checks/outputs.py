@@ -16,7 +16,7 @@ from checks.project import DisplayUnits
 
 __all__ = ["annotation_values", "write_all"]
 
-# Fewer piers than this: write the report in this process (a fork costs ~10 ms and
+# Fewer piers than this: write the report and findings in this process (a fork costs ~10 ms and
 # the small report takes less).
 _PARALLEL_PIERS = 500
 
@@ -75,18 +75,16 @@ def annotation_values(run) -> tuple[dict[str, dict], dict[str, dict]]:
     return walls, storeys
 
 
-def _report_beside(run, path: Path, *, system: DisplayUnits, parallel: bool | None):
+def _report_beside(run, path: Path, *, system: DisplayUnits, parallel: bool):
     """Start writing ``report.html`` in a worker process (see :mod:`ifc_bridge.worker`).
 
     The worker writes a ``.part`` file beside ``path``; :func:`_report_done` renames it
     once complete, so a failed run never leaves half a report. Without a worker the
     report is written here when its result is asked for.
     """
-    from ifc_bridge.worker import can_fork, start_call
+    from ifc_bridge.worker import start_call
 
     part = path.with_name(path.name + ".part")
-    if parallel is None:
-        parallel = len(run.allocation.piers) >= _PARALLEL_PIERS and can_fork()
     return part, start_call(
         "report", _write_report, part, run, system, parallel=parallel
     )

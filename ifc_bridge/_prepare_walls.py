@@ -1,8 +1,8 @@
 """The kernel-free part of reading walls: relations, Axis, properties, plain bodies.
 
-It runs while the geometry kernel meshes the other bodies in workers
-(:func:`ifc_bridge._shape_pass.start_shapes`); :func:`ifc_bridge.read_walls.read_walls`
-finishes each wall once the meshes are in.
+The Axis and plain bodies come from the shape pass
+(:func:`ifc_bridge._shape_pass.start_shapes`), the properties are read while it
+runs; :func:`ifc_bridge.read_walls.read_walls` finishes each wall with the meshes.
 """
 
 from __future__ import annotations
@@ -25,7 +25,7 @@ __all__ = ["PreparedWall", "prepare_walls"]
 
 @dataclass(frozen=True, slots=True, kw_only=True)
 class PreparedWall:
-    """What is known of a wall before its geometry: read while the kernel meshes.
+    """What is known of a wall without the kernel's meshes.
 
     Attributes:
         wall: The IfcWall.
@@ -57,8 +57,8 @@ def prepare_walls(
     """The kernel-free part of reading every wall (relations, Axis, properties).
 
     Common practice: as :func:`ifc_bridge.read_walls.read_walls`; split out so that
-    it runs while the geometry kernel meshes the bodies
-    (:func:`ifc_bridge._shape_pass.start_shapes`).
+    the shape pass (:func:`ifc_bridge._shape_pass.start_shapes`) and the properties
+    read beside it can be handed in.
 
     Args:
         walls: The IfcWall entities, file order.
