@@ -5,6 +5,7 @@ Frozen dataclasses, SI throughout (N, m); re-exported by :mod:`allocation.result
 
 from __future__ import annotations
 
+from collections.abc import Sequence
 from dataclasses import dataclass
 
 from shapely.geometry import Polygon
@@ -72,7 +73,8 @@ class LevelLoad:
         diaphragm_force: Fpx, ASCE 7-16 Eq. 12.10-1 with its bounds [N].
         Cvx: Vertical distribution factor, Eq. 12.8-12 [-] (0 for given forces).
         mass_centroid: Centre of the weight at this level (x, y) [m].
-        masses: The weight as located items; weights add up to ``seismic_weight``.
+        masses: The weight as located items; weights add up to ``seismic_weight``
+            (a tuple, or the columns of the weight take-off: ``_mass_table``).
     """
 
     level: str
@@ -86,7 +88,7 @@ class LevelLoad:
     diaphragm_force: float = 0.0
     Cvx: float = 0.0
     mass_centroid: tuple[float, float] = (0.0, 0.0)
-    masses: tuple[MassItem, ...] = ()
+    masses: Sequence[MassItem] = ()
 
 
 @dataclass(frozen=True, slots=True, kw_only=True)

@@ -25,6 +25,7 @@ from numpy.typing import NDArray
 from shapely.ops import unary_union
 
 from allocation._columns import floats, points
+from allocation._mass_table import MassTable
 from allocation._memo import Memo, float_bytes
 from allocation._tributary import _PLACES, Slot, _place, _slots_key, _spread_shares
 from allocation.results import LevelLoad, LineId, MassItem
@@ -66,10 +67,17 @@ _SOURCE, _REF, _PART = (attrgetter(n) for n in ("source", "ref", "pier_part"))
 
 
 def _make_arrays(items: Sequence[MassItem]) -> _Items:
-    weights = list(map(_WEIGHT, items))
-    weight = floats(weights, len(weights))
-    xy = points(map(_LOCATION, items), len(items))
-    polygons = list(map(_POLYGON, items))
+    table = items if isinstance(items, MassTable) else None
+    if table is not None:  # the weight take-off's columns
+        weight, xy, polygons = table.weight, table.xy, table.polygon
+        weights = weight.tolist()
+        walls = (table.source, table.ref, table.pier_part)
+    else:
+        weights = list(map(_WEIGHT, items))
+        weight = floats(weights, len(weights))
+        xy = points(map(_LOCATION, items), len(items))
+        polygons = list(map(_POLYGON, items))
+        walls = tuple(list(map(g, items)) for g in (_SOURCE, _REF, _PART))
     spread = tuple(compress(count(), map(is_not, polygons, repeat(None))))
     return _Items(
         items=items,
@@ -77,7 +85,7 @@ def _make_arrays(items: Sequence[MassItem]) -> _Items:
         total=math.fsum(weights),
         xy=xy,
         spread=spread,
-        rows_of=_wall_rows(items),
+        rows_of=_wall_rows(*walls),
         signature=(
             weight.tobytes(),
             xy.tobytes(),
@@ -89,12 +97,11 @@ def _make_arrays(items: Sequence[MassItem]) -> _Items:
 
 
 def _wall_rows(
-    items: Sequence[MassItem],
+    source: Sequence[str], ref: Sequence[str], part: Sequence[int]
 ) -> dict[tuple[str, int], int | list[int]]:
     """Item index (or indices, when a wall has several items) per wall segment."""
-    rows = list(compress(count(), map(eq, map(_SOURCE, items), repeat("wall"))))
-    walls = [items[i] for i in rows]
-    keys = list(zip(map(_REF, walls), map(_PART, walls), strict=True))
+    rows = list(compress(count(), map(eq, source, repeat("wall"))))
+    keys = [(ref[i], part[i]) for i in rows]
     out: dict[tuple[str, int], int | list[int]] = dict(zip(keys, rows, strict=True))
     if len(out) < len(rows):
         out = {}

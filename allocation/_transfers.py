@@ -7,11 +7,11 @@ pier above resists is delivered, with the same sign, to the diaphragm it stands 
 from __future__ import annotations
 
 from collections.abc import Mapping, Sequence
-from operator import attrgetter
 
 import numpy as np
 
-from allocation._columns import points, segments
+from allocation._columns import ends as end_points
+from allocation._columns import points
 from allocation._records import maker
 from allocation.errors import AllocationError
 from allocation.lines import along, perpendicular
@@ -27,7 +27,6 @@ from ifc_bridge.model import Direction
 
 __all__ = ["split_transfers", "stands_on", "transfer_point_loads"]
 
-_ENDS = attrgetter("start", "end")
 _point_load = maker(PointLoad)  # PointLoad(...), faster for the many stacked walls
 
 
@@ -68,7 +67,7 @@ def _first_under(
     if not piers or not lines:
         return [None] * len(piers)
     k, j = (1, 0) if direction is Direction.X else (0, 1)
-    ends = segments(map(_ENDS, piers), len(piers))
+    ends = end_points(piers)
     across = (ends[:, 0, k] + ends[:, 1, k]) / 2.0  # perpendicular(pier.midpoint)
     a = np.minimum(ends[:, 0, j], ends[:, 1, j])  # sorted along-line ends
     b = np.maximum(ends[:, 0, j], ends[:, 1, j])

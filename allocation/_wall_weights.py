@@ -18,9 +18,10 @@ from operator import attrgetter
 import numpy as np
 from numpy.typing import NDArray
 
-from allocation._columns import flags, floats, ints, points, segments
-from allocation._records import records
-from allocation.results import MassItem, WeightItem
+from allocation._columns import ends as end_points
+from allocation._columns import flags, floats, ints, points
+from allocation._mass_table import MassTable
+from allocation.results import WeightItem
 from ifc_bridge.model import WallSegment
 
 __all__ = ["WALLS_ABOVE", "WALLS_BELOW", "WallShares", "wall_shares"]
@@ -31,11 +32,7 @@ WALLS_ABOVE = "walls above"
 _GUID, _PART, _STOREY, _LEVEL = (
     attrgetter(n) for n in ("guid", "part", "storey", "level")
 )
-_ASSEMBLY, _OPENINGS, _ENDS = (
-    attrgetter("assembly"),
-    attrgetter("openings"),
-    attrgetter("start", "end"),
-)
+_ASSEMBLY, _OPENINGS = attrgetter("assembly"), attrgetter("openings")
 _HEIGHTS = attrgetter("base_elevation", "top_elevation")
 
 
@@ -82,7 +79,7 @@ class WallShares:
             )
         return out
 
-    def masses(self) -> list[MassItem]:
+    def masses(self) -> MassTable:
         """One point item per wall segment (its halves here merged), at its mid-point."""
         cols = self.columns
         index = self.walls.tolist()
@@ -106,12 +103,12 @@ class WallShares:
                 if w > 0.0:
                     walls.append(index[rows[0]])
                     weights.append(float(w))
-        return records(
-            MassItem,
+        return MassTable(
             source=["wall"] * len(walls),
             ref=list(map(cols.guid.__getitem__, walls)),
-            weight=weights,
-            location=list(map(cols.midpoint.__getitem__, walls)),
+            weight=np.array(weights, dtype=np.float64),
+            xy=cols.xy[walls] if walls else np.zeros((0, 2)),
+            polygon=[None] * len(walls),
             pier_part=list(map(cols.part.__getitem__, walls)),
         )
 
@@ -123,13 +120,13 @@ class _Columns:
     guid: list[str]
     part: list[int]
     key: list[tuple[str, int]]  # (guid, part)
-    midpoint: list[tuple[float, float]]  # WallSegment.midpoint [m]
+    xy: NDArray[np.float64]  # WallSegment.midpoint, (n, 2) [m]
     q: list[float]  # unit load per assembly index [Pa]
 
 
 def _areas(walls: Sequence[WallSegment], area_of: Callable) -> NDArray[np.float64]:
     """Net elevation area per wall, as ``wall_elevation_area`` gives [m²]."""
-    ends = segments(map(_ENDS, walls), len(walls))
+    ends = end_points(walls)
     dx = ends[:, 1, 0] - ends[:, 0, 0]
     dy = ends[:, 1, 1] - ends[:, 0, 1]
     length = floats(map(math.hypot, dx.tolist(), dy.tolist()), len(walls))
@@ -177,14 +174,14 @@ def wall_shares(
         if g not in q_found:
             q_found[g] = unit_load(w)
     q_of = [q_found[g] for g in range(len(assemblies))]
-    ends = segments(map(_ENDS, walls), len(walls))
+    ends = end_points(walls, keep=True)  # the model's walls: read once per run
     mid = (ends[:, 0] + ends[:, 1]) / 2.0
     guids, parts = list(map(_GUID, walls)), list(map(_PART, walls))
     cols = _Columns(
         guid=guids,
         part=parts,
         key=list(zip(guids, parts, strict=True)),
-        midpoint=list(zip(mid[:, 0].tolist(), mid[:, 1].tolist(), strict=True)),
+        xy=mid,
         q=q_of,
     )
     area = _areas(walls, area_of) if walls else np.zeros(0)

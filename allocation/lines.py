@@ -23,11 +23,10 @@ from __future__ import annotations
 import dataclasses
 from collections.abc import Iterable, Sequence
 from itertools import repeat
-from operator import attrgetter
 
 import numpy as np
 
-from allocation._columns import segments
+from allocation._columns import ends as end_points
 from allocation._crossing import (
     Crossing,
     RegionProbe,
@@ -67,14 +66,13 @@ def along(point: tuple[float, float], direction: Direction) -> float:
 _Placed = tuple[Pier, float, float, float, float, float, float]
 
 
-_ENDS = attrgetter("start", "end")
 
 
 def _placed(piers: Sequence[Pier], direction: Direction) -> list[_Placed]:
     """Each pier as the grouping sees it, worked out on arrays (the same floats)."""
     if not piers:
         return []
-    ends = segments(map(_ENDS, piers), len(piers))
+    ends = end_points(piers)
     s0, s1, e0, e1 = ends[:, 0, 0], ends[:, 0, 1], ends[:, 1, 0], ends[:, 1, 1]
     dx, dy = e0 - s0, e1 - s1
     if direction is Direction.X:  # along x, across y

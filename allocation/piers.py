@@ -20,7 +20,8 @@ from operator import attrgetter
 
 import numpy as np
 
-from allocation._columns import floats, points, segments
+from allocation._columns import ends as end_points
+from allocation._columns import floats, points
 from allocation._records import maker, records
 from allocation.parameters import AnalysisOptions
 from allocation.results import Condition, ConditionKind, Pier
@@ -31,10 +32,7 @@ __all__ = ["MIN_PIER_LENGTH", "make_piers", "pier_id", "wall_direction"]
 logger = logging.getLogger(__name__)
 
 _pier = maker(Pier)  # Pier(...), faster for the many piers
-_ENDS, _HEIGHTS = (
-    attrgetter("start", "end"),
-    attrgetter("base_elevation", "top_elevation"),
-)
+_HEIGHTS = attrgetter("base_elevation", "top_elevation")
 _GUID, _LEVEL, _PART, _NAME, _STOREY, _THICKNESS, _ASSEMBLY = (
     attrgetter(n)
     for n in ("guid", "level", "part", "name", "storey", "thickness", "assembly")
@@ -126,7 +124,7 @@ def _directions(
     walls: Sequence[WallSegment], tolerance: float
 ) -> list[Direction | None]:
     """:func:`wall_direction` of each wall's ``angle``, on arrays (the same floats)."""
-    ends = segments(map(_ENDS, walls), len(walls))
+    ends = end_points(walls)
     dx, dy = (ends[:, 1] - ends[:, 0]).T
     pi = math.pi
     angle = map(float.__mod__, map(math.atan2, dy.tolist(), dx.tolist()), repeat(pi))
@@ -148,7 +146,7 @@ def _plain_piers(
     As :func:`_wall_piers` gives it: the interval (0, length) when length is at
     least ``MIN_PIER_LENGTH``, its ends at ``start + (s / length)·(end - start)``.
     """
-    ends = segments(map(_ENDS, walls), len(walls))
+    ends = end_points(walls)
     d = ends[:, 1] - ends[:, 0]
     length = floats(map(math.hypot, d[:, 0].tolist(), d[:, 1].tolist()), len(walls))
     ok = length >= MIN_PIER_LENGTH
@@ -225,7 +223,9 @@ def make_piers(
         if not found:
             conditions.append(_no_pier(wall, direction))
         piers.extend(found)
-    return tuple(piers), tuple(conditions)
+    made = tuple(piers)
+    end_points(made, keep=True)  # read once: lines, transfers and rigid take rows
+    return made, tuple(conditions)
 
 
 def _skewed(wall: WallSegment, tolerance: float) -> Condition:

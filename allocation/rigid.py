@@ -31,7 +31,8 @@ from operator import attrgetter, is_
 import numpy as np
 from numpy.typing import NDArray
 
-from allocation._columns import flags, floats, segments
+from allocation._columns import ends as end_points
+from allocation._columns import flags, floats
 from allocation._rigid_inputs import validate as _validate
 from allocation.asce7_16 import s12_8_torsion
 from allocation.errors import ParameterError
@@ -52,7 +53,6 @@ _STIFFNESS, _DIRECTION, _ID = (
     attrgetter("direction"),
     attrgetter("id"),
 )
-_ENDS = attrgetter("start", "end")
 _REL_TOL = 1e-12  # zero test for J and arms, relative to the plan scale
 
 
@@ -117,7 +117,7 @@ def _rigidity(
         msg = f"rigid allocation: pier {p.id}: stiffness {p.stiffness} must be >= 0"
         raise ParameterError(msg)
     is_x = flags(map(is_, map(_DIRECTION, active), repeat(Direction.X)), len(active))
-    ends = segments(map(_ENDS, active), len(active))
+    ends = end_points(active)
     x = (ends[:, 0, 0] + ends[:, 1, 0]) / 2.0  # Pier.midpoint
     y = (ends[:, 0, 1] + ends[:, 1, 1]) / 2.0
     kx, ky = np.where(is_x, k, 0.0), np.where(is_x, 0.0, k)

@@ -23,11 +23,8 @@ import logging
 import math
 from collections import defaultdict
 from collections.abc import Iterable, Sequence
-from operator import attrgetter
 
-import numpy as np
-
-from allocation._columns import points
+from allocation._mass_table import MassTable
 from allocation._wall_weights import WallShares, wall_shares
 from allocation.errors import ParameterError
 from allocation.parameters import AnalysisOptions, DeadLoads
@@ -37,8 +34,6 @@ from ifc_bridge.model import BuildingModel, Diaphragm, Level, WallSegment
 __all__ = ["level_weights", "wall_elevation_area", "wall_unit_load"]
 
 logger = logging.getLogger(__name__)
-
-_WEIGHT, _LOCATION = attrgetter("weight"), attrgetter("location")
 
 # breakdown row: (source, unit load [Pa], quantity [m²], weight [N], guids)
 _Row = tuple[str, float, float, float, Iterable[str]]
@@ -233,7 +228,7 @@ def _spread(source: str, d: Diaphragm, weight: float) -> MassItem:
 
 
 def _extra_masses(
-    model: BuildingModel, level: Level, extra: float, located: Sequence[MassItem]
+    model: BuildingModel, level: Level, extra: float, located: MassTable
 ) -> list[MassItem]:
     """Extra weight over the diaphragms by area; without any, at the walls' centre."""
     if extra <= 0.0:
@@ -258,9 +253,8 @@ def _extra_masses(
     ]
 
 
-def _centroid(masses: Sequence[MassItem]) -> tuple[float, float]:
-    w = np.array(list(map(_WEIGHT, masses)), dtype=np.float64)
-    xy = points(map(_LOCATION, masses), len(masses))
+def _centroid(masses: MassTable) -> tuple[float, float]:
+    w, xy = masses.weight, masses.xy
     total = math.fsum(w.tolist())  # fsum: exact, whatever the order
     x = math.fsum((w * xy[:, 0]).tolist()) / total
     y = math.fsum((w * xy[:, 1]).tolist()) / total
@@ -277,10 +271,12 @@ def _level_load(
     shares: WallShares | None,
     extra: float,
 ) -> LevelLoad:
-    rows, masses = _slab_parts(model, level.name, loads, targets)
-    if shares is not None:
-        masses += shares.masses()
-    masses += _extra_masses(model, level, extra, masses)
+    rows, slabs = _slab_parts(model, level.name, loads, targets)
+    located = MassTable.join(
+        [MassTable.of(slabs)] + ([] if shares is None else [shares.masses()])
+    )
+    extras = _extra_masses(model, level, extra, located)
+    masses = MassTable.join([located, MassTable.of(extras)]) if extras else located
     breakdown = _grouped(rows) + ([] if shares is None else shares.breakdown())
     if extra > 0.0:
         breakdown.append(
@@ -301,7 +297,7 @@ def _level_load(
         seismic_weight=float(seismic_weight),
         breakdown=tuple(breakdown),
         mass_centroid=_centroid(masses),
-        masses=tuple(masses),
+        masses=masses,
     )
 
 

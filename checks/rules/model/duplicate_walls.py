@@ -13,7 +13,7 @@ from operator import attrgetter
 
 import numpy as np
 
-from allocation._columns import segments
+from allocation._columns import ends as end_points
 from checks.findings import Finding, Severity
 from ifc_bridge.model import BuildingModel, WallSegment
 
@@ -47,7 +47,7 @@ def overlap_fraction(a: WallSegment, b: WallSegment) -> float:
     return max(0.0, common) / min(a.length, b.length)
 
 
-_ENDS, _STOREY = attrgetter("start", "end"), attrgetter("storey")
+_STOREY = attrgetter("storey")
 _NEAR = [(dx, dy) for dx in (-1, 0, 1) for dy in (-1, 0, 1)]  # the cell's 3 x 3 block
 _CODABLE = 2.0**40  # [m] mid-points beyond this are grouped without int64 cell codes
 
@@ -84,7 +84,7 @@ def _cells(
         dtype=np.int64,
         count=len(walls),
     )
-    ends = segments(map(_ENDS, walls), len(walls))
+    ends = end_points(walls)
     mid = np.round((ends[:, 0] + ends[:, 1]) / 2.0)  # round(): half to even
     if not np.isfinite(mid).all() or np.abs(mid).max() > _CODABLE:
         return _cells_by_dict(walls)
