@@ -14,13 +14,13 @@ from __future__ import annotations
 
 import math
 from collections.abc import Iterable, Sequence
-from itertools import chain
+from itertools import chain, repeat
 from operator import attrgetter
 
 import numpy as np
 from numpy.typing import NDArray
 
-__all__ = ["ends", "flags", "floats", "ints", "points", "segments"]
+__all__ = ["ends", "flags", "floats", "ints", "pier_lengths", "points", "segments"]
 
 
 def _read(flat: Iterable[float], n: int, shape: tuple[int, ...]) -> NDArray[np.float64]:
@@ -106,3 +106,10 @@ def ends(items: Sequence, *, keep: bool = False) -> NDArray[np.float64]:
         _TABLES.insert(0, _Table(items, out))
         del _TABLES[_KEEP:]
     return out
+
+
+def pier_lengths(piers: Sequence) -> list[float]:
+    """``Pier.length`` of each pier, from :func:`ends` (the same floats) [m]."""
+    e = ends(piers)
+    dx, dy = e[:, 1, 0] - e[:, 0, 0], e[:, 1, 1] - e[:, 0, 1]
+    return list(map(float.__pow__, (dx * dx + dy * dy).tolist(), repeat(0.5)))

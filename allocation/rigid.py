@@ -33,6 +33,7 @@ from numpy.typing import NDArray
 
 from allocation._columns import ends as end_points
 from allocation._columns import flags, floats
+from allocation._memo import float_bytes
 from allocation._rigid_inputs import validate as _validate
 from allocation.asce7_16 import s12_8_torsion
 from allocation.errors import ParameterError
@@ -145,6 +146,37 @@ def _rigidity(
         totals=(float(kx_sum), float(ky_sum)),
         torsionally_unstable=_REL_TOL * k_all * scale**2 >= J,
     )
+
+
+_LAST_RIGIDITY: list[tuple[tuple, _Rigidity]] = []  # the last story's, for its other direction
+
+
+def _story_rigidity(
+    piers: Sequence[Pier],
+    level: str,
+    center_of_mass: tuple[float, float],
+    plan_extent: tuple[float, float, float, float],
+) -> _Rigidity:
+    """:func:`_rigidity`, reused for the story's other direction.
+
+    The CR and J do not depend on the direction of the force: the allocation asks
+    for the same piers (the very objects, in order; frozen) with the same centre of
+    mass and extent in X and then in Y.
+    """
+    key = (level, float_bytes((*center_of_mass, *plan_extent)))  # exact: -0.0 too
+    if _LAST_RIGIDITY:
+        (held, *rest), rig = _LAST_RIGIDITY[0]
+        if (
+            tuple(rest) == key
+            and len(held) == len(piers)
+            and all(map(is_, held, piers))
+        ):
+            return rig
+    rig = _rigidity(
+        piers, level=level, center_of_mass=center_of_mass, plan_extent=plan_extent
+    )
+    _LAST_RIGIDITY[:] = [((tuple(piers), *key), rig)]
+    return rig
 
 
 def _drift_ratio(
@@ -363,12 +395,7 @@ def allocate_rigid_story(
         )
         _validate(*given, 1.0)
         if rig is None:
-            rig = _rigidity(
-                piers,
-                level=level,
-                center_of_mass=center_of_mass,
-                plan_extent=plan_extent,
-            )
+            rig = _story_rigidity(piers, level, center_of_mass, plan_extent)
         kwargs = {
             "level": level,
             "story_shear": story_shear,

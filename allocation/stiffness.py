@@ -37,6 +37,7 @@ import math
 from collections.abc import Sequence
 from dataclasses import replace
 
+from allocation._columns import pier_lengths
 from allocation.errors import ParameterError
 from allocation.parameters import (
     AnalysisOptions,
@@ -252,7 +253,7 @@ def stiffness_values(
         One stiffness per pier, in the given order [m or N/m], and the conditions.
     """
     if options.wall_stiffness is WallStiffness.LENGTH:
-        return [float(p.length) for p in piers], ()
+        return pier_lengths(piers), ()  # [float(p.length) for p in piers]
     by_level: dict[str, list[int]] = {}
     for i, p in enumerate(piers):
         by_level.setdefault(p.level, []).append(i)

@@ -11,6 +11,7 @@ import math
 from collections.abc import Sequence
 from enum import StrEnum
 
+from allocation._columns import pier_lengths
 from allocation.errors import ParameterError
 from allocation.results import Pier, PierId
 
@@ -77,7 +78,7 @@ def distribute_in_line(
         msg = f"no piers to share a line force of {line_force} N"
         raise ParameterError(msg)
     if basis is InLineBasis.LENGTH:
-        weights = [p.length for p in piers]
+        weights = pier_lengths(piers)  # Pier.length of each
     else:
         weights = [p.stiffness for p in piers]
     if not all(math.isfinite(w) and w > 0.0 for w in weights):

@@ -9,13 +9,17 @@ from __future__ import annotations
 
 import re
 from collections.abc import Iterable
+from typing import NamedTuple
 
+from allocation._columns import pier_lengths
 from allocation.results import Allocation, LevelLoad, Pier, ResistanceLine
 from checks.project import ProjectConfig
 from checks.units import format_value
 from ifc_bridge.model import BuildingModel, Direction, IfcGuid
 
 __all__ = [
+    "AllocatedPiers",
+    "allocated_piers",
     "along",
     "fmt",
     "level_guids",
@@ -90,6 +94,38 @@ def pier_force(allocation: Allocation, pier_id: str) -> float:
         if pier_id in r.pier_forces
     ]
     return float(max(forces, default=0.0))
+
+
+class AllocatedPiers(NamedTuple):
+    """The piers with a direction, in allocation order, with their numbers."""
+
+    piers: list[Pier]
+    lengths: list[float]  # Pier.length [m]
+    forces: list[float]  # pier_force [N]
+
+
+_ALLOCATED: list[tuple[Allocation, AllocatedPiers]] = []  # the last allocation's
+
+
+def allocated_piers(allocation: Allocation) -> AllocatedPiers:
+    """The allocated piers (skewed ones left out), their lengths and governing forces.
+
+    Worked out once per allocation (the unit-shear and overturning rules both
+    read them); the same floats as ``Pier.length`` and :func:`pier_force`.
+    """
+    if _ALLOCATED and _ALLOCATED[0][0] is allocation:
+        return _ALLOCATED[0][1]
+    piers = [p for p in allocation.piers if p.direction is not None]
+    env = allocation.envelope
+    forces = []
+    for p in piers:
+        e = env.get(p.id)
+        forces.append(
+            float(abs(e.envelope)) if e is not None else pier_force(allocation, p.id)
+        )
+    found = AllocatedPiers(piers, pier_lengths(piers), forces)
+    _ALLOCATED[:] = [(allocation, found)]
+    return found
 
 
 def level_load(allocation: Allocation, level: str) -> LevelLoad | None:

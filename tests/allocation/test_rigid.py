@@ -324,3 +324,35 @@ def test_symmetric_plan_without_eccentricity_loads_mirror_walls_equally(
     assert all(
         abs(r.pier_forces[p.id]) <= 1e-9 * V for p in piers if p.direction is X
     )  # no torsion, no X-wall force
+
+
+def _story(piers, direction):
+    return allocate_rigid_story(
+        piers,
+        level="L1",
+        story_shear=1000.0,
+        center_of_mass=(5.0, 5.0),
+        plan_extent=(0.0, 0.0, 10.0, 10.0),
+        direction=direction,
+        accidental_eccentricity=0.05,
+        amplify_torsion=False,
+    )
+
+
+def test_story_rigidity_reused_only_for_the_same_piers():
+    # the CR of the story serves its X and Y cases; a list changed in place (same
+    # object, other piers) is worked out afresh. Statics as above (common practice).
+    piers = [
+        wall("W", "Y", 2.5, 5.0, 3.0),
+        wall("E", "Y", 7.5, 5.0, 3.0),
+        wall("S", "X", 5.0, 0.0, 4.0),
+    ]
+    y_first = _story(piers, Y)
+    x_then = _story(piers, X)
+    assert x_then[0].center_of_rigidity == y_first[0].center_of_rigidity == (5.0, 0.0)
+    piers.append(wall("N", "X", 5.0, 10.0, 4.0))  # CR moves to y = 5
+    moved = _story(piers, X)
+    assert moved[0].center_of_rigidity == (5.0, 5.0)
+    # +X+e: e = 0.05 * 10 = 0.5 m; J = 2 * 4 * 5**2 + 2 * 3 * 2.5**2 = 237.5;
+    # N takes V/2 + V * e * k * d / J = 500 + 1000 * 0.5 * 4 * 5 / 237.5
+    assert moved[0].pier_forces["N|L1|0|0"] == pytest.approx(500.0 + 10000.0 / 237.5)

@@ -24,7 +24,7 @@ from allocation._records import maker
 from allocation.results import Allocation, PierId
 from checks.findings import Finding, Severity
 from checks.project import ProjectConfig
-from checks.rules._support import fmt, level_guids, pier_force
+from checks.rules._support import allocated_piers, fmt, level_guids
 from checks.rules.asce7_16.load_combinations import (
     combination_clause,
     counteracting_dead_factor,
@@ -81,15 +81,13 @@ def hold_down_forces(
     kD = counteracting_dead_factor(config.design_basis, config.seismic.SDS)
     out: dict[PierId, HoldDown] = {}
     units: dict[str, float] = {}  # wall dead load [Pa] per assembly name
-    for pier in allocation.piers:
-        if pier.direction is None:
-            continue
+    for pier, L, force in zip(*allocated_piers(allocation), strict=True):
         unit = units.get(pier.assembly)
         if unit is None:
             unit = units[pier.assembly] = _wall_load(pier.assembly, config)
-        L, h = pier.length, pier.height
+        h = pier.height
         D = unit * h * L
-        M = f * rho * pier_force(allocation, pier.id) * h
+        M = f * rho * force * h
         Mr = kD * D * L / 2.0
         out[pier.id] = _hold_down(
             pier=pier.id,

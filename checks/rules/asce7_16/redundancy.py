@@ -21,7 +21,9 @@ from __future__ import annotations
 
 import logging
 from dataclasses import dataclass
+from operator import attrgetter
 
+from allocation._columns import pier_lengths
 from allocation.errors import AllocationError
 from allocation.results import Allocation, Pier, PierId
 from checks.findings import Finding, Severity
@@ -34,6 +36,8 @@ from ifc_bridge.model import BuildingModel, Direction
 __all__ = ["Redundancy", "check_redundancy", "evaluate_redundancy"]
 
 log = logging.getLogger(__name__)
+
+_ID = attrgetter("id")
 
 RULE = "redundancy"
 CLAUSE = "ASCE 7-16 §12.3.4.2"
@@ -121,10 +125,14 @@ def _extreme_without(
 
 
 def _strengths(
-    piers: list[Pier], config: ProjectConfig, capacities: _Capacities | None = None
+    piers: list[Pier],
+    config: ProjectConfig,
+    capacities: _Capacities | None = None,
+    lengths: dict[PierId, float] | None = None,
 ) -> dict[PierId, float]:
     found = capacities or _Capacities(config)
-    lengths = {p.id: p.length for p in piers}
+    if lengths is None:
+        lengths = dict(zip(map(_ID, piers), pier_lengths(piers), strict=True))
     caps = {p.id: found.of(p, lengths[p.id])[0] for p in piers}
     if any(c is None for c in caps.values()):
         return lengths
@@ -178,10 +186,11 @@ def evaluate_redundancy(
         story = stories.get(lv.level, [])
         for d in (Direction.X, Direction.Y):
             own = [p for p in story if p.direction is d]
-            strength = _strengths(own, config, capacities)
+            lengths = dict(zip(map(_ID, own), pier_lengths(own), strict=True))
+            strength = _strengths(own, config, capacities, lengths)
             total = sum(strength.values())
             for p in own:
-                if p.aspect_ratio <= 1.0 or total <= 0:
+                if p.height / lengths[p.id] <= 1.0 or total <= 0:  # Pier.aspect_ratio
                     continue
                 loss = strength[p.id] / total
                 worst = max(worst, (loss, p.id))

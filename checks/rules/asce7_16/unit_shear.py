@@ -22,7 +22,7 @@ from allocation.parameters import AssemblyKind
 from allocation.results import Allocation, Pier, PierId
 from checks.findings import Finding, Severity
 from checks.project import Assembly, ProjectConfig
-from checks.rules._support import fmt, pier_force
+from checks.rules._support import allocated_piers, fmt
 from checks.rules.asce7_16.load_combinations import combination_clause, seismic_factor
 from checks.rules.asce7_16.overturning import HoldDown
 from checks.rules.sdpws_2015.aspect_ratio import aspect_factor
@@ -193,11 +193,7 @@ def pier_checks(
     caps = _Capacities(config)
     holds = hold_downs or {}
     out: dict[PierId, PierCheck] = {}
-    for pier in allocation.piers:
-        if pier.direction is None:
-            continue
-        force = pier_force(allocation, pier.id)
-        length = pier.length
+    for pier, length, force in zip(*allocated_piers(allocation), strict=True):
         v = f * rho * force / length
         capacity, factor = caps.of(pier, length)
         dcr = v / capacity if capacity else None

@@ -175,3 +175,24 @@ def test_precomputed_checks_and_hold_downs_give_the_same_results():
         alloc, cfg
     )
     assert pier_capacity(piers[0], cfg) == (plain[piers[0].id].capacity, 0.0)  # h/b 5
+
+
+def test_allocated_piers_are_the_per_pier_lengths_and_forces():
+    # common practice: a skewed pier is not allocated; a pier with no envelope entry
+    # takes its largest result (pier_force); numbers read once per allocation
+    from checks.rules._support import allocated_piers, pier_force
+
+    piers = [
+        pier("A", start=(0.0, 0.0), end=(3.0, 4.0 + 1e-9)),
+        pier("B", start=(0.0, 2.0), end=(0.0, 9.5)),
+        dataclasses.replace(pier("C", start=(1.0, 1.0), end=(2.0, 2.0)), direction=None),
+    ]
+    alloc = allocation(piers, {piers[0].id: -1234.5})
+    found = allocated_piers(alloc)
+    assert found.piers == piers[:2]
+    assert found.lengths == [p.length for p in piers[:2]]  # the same floats
+    assert found.forces == [pier_force(alloc, p.id) for p in piers[:2]]
+    assert found.forces[0] == 1234.5
+    assert allocated_piers(alloc) is found
+    other = allocation(piers, {piers[1].id: 10.0})
+    assert allocated_piers(other).forces == [0.0, 10.0]
