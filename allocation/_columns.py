@@ -108,8 +108,17 @@ def ends(items: Sequence, *, keep: bool = False) -> NDArray[np.float64]:
     return out
 
 
+_FEW = 48  # fewer records than this: attribute reads beat an array's fixed costs
+
+
 def pier_lengths(piers: Sequence) -> list[float]:
-    """``Pier.length`` of each pier, from :func:`ends` (the same floats) [m]."""
+    """``Pier.length`` of each pier, from :func:`ends` (the same floats) [m].
+
+    A few piers (one line's) are read one by one: the same operations on the same
+    doubles, without the table look-up and array set-up that only pay on many.
+    """
+    if len(piers) < _FEW:
+        return [p.length for p in piers]
     e = ends(piers)
     dx, dy = e[:, 1, 0] - e[:, 0, 0], e[:, 1, 1] - e[:, 0, 1]
     return list(map(float.__pow__, (dx * dx + dy * dy).tolist(), repeat(0.5)))

@@ -77,7 +77,10 @@ def _check_storey_names(model: BuildingModel, config: ProjectConfig) -> None:
         ("seismic.level_forces", [n for n, _ in config.seismic.level_forces]),
         ("loads.extra", [n for n, _ in config.loads.extra]),
         ("levels.diaphragms", list(config.analysis.diaphragm_levels)),
-        ("levels.base", [config.seismic.base_level] if config.seismic.base_level else []),
+        (
+            "levels.base",
+            [config.seismic.base_level] if config.seismic.base_level else [],
+        ),
     ]
     for key, given in keys:
         for name in given:
@@ -193,8 +196,10 @@ def check_model(
             from checks.rules.run_rules import run_checks
 
             cfg = _config(config)
-            # the writers' modules (bcf-client, xsdata) load now too, beside the
-            # workers, not after the checks; write_outputs needs them next
+            # the writers' modules (bcf-client, xsdata) and the capacity rules' (pint
+            # units, the assembly library) load now too, beside the workers, not
+            # during the checks; the checks and write_outputs need them next
+            import checks.capacity
             import checks.report.csv_tables
             import checks.report.findings_out
             import checks.report.html_report
@@ -221,7 +226,10 @@ def check_model(
                 started.cancel()
             requirements.cancel()
     return CheckRun(
-        model=model, config=cfg, allocation=allocation, checks=checks,
+        model=model,
+        config=cfg,
+        allocation=allocation,
+        checks=checks,
         requirement_findings=found,
     )
 
@@ -313,7 +321,10 @@ def write_outputs(
         msg = f"{out}: cannot create the output folder: {exc.strerror}"
         raise OutputError(msg) from exc
     return write_all(
-        run, out, previous=previous, annotate=annotate,
+        run,
+        out,
+        previous=previous,
+        annotate=annotate,
         bcf_version=bcf_version or run.config.bcf_version,
         system=DisplayUnits(units or run.config.display_units.value),
     )

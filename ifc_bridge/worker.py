@@ -20,6 +20,7 @@ import logging
 import os
 import pickle
 import signal
+import struct
 import sys
 from collections.abc import Callable
 from dataclasses import dataclass, field
@@ -34,6 +35,24 @@ T = TypeVar("T")
 # Fewer elements (walls, or walls + slabs + openings) than this: do it in this
 # process. A fork costs ~10 ms and pays only when there is work to overlap.
 PARALLEL_MIN = 500
+
+# A worker's result is framed by its byte count, so a whole result is known as such
+# without waiting for the worker's exit (tearing down a large forked process takes
+# several milliseconds). Workers that sent a whole result and are still exiting are
+# reaped later, without blocking, when the next worker starts or a result arrives.
+_HEADER = struct.Struct("<Q")
+_EXITING: list[int] = []
+
+
+def _reap_exited() -> None:
+    """Reap the workers of :data:`_EXITING` that have ended (never waits)."""
+    for pid in tuple(_EXITING):
+        try:
+            done, _ = os.waitpid(pid, os.WNOHANG)
+        except ChildProcessError:  # reaped already (by a caller's own wait)
+            done = pid
+        if done:
+            _EXITING.remove(pid)
 
 
 def usable_cpus() -> int:
@@ -97,16 +116,21 @@ class PendingCall(Generic[T]):
 
     def _collect(self) -> tuple[Any, bool]:
         with os.fdopen(self.fd, "rb") as pipe:
-            payload = pipe.read()
-        _, status = os.waitpid(self.pid, 0)
-        self.pid, self.fd = 0, -1
-        if status != 0 or not payload:
+            framed = pipe.read()
+        pid, self.pid, self.fd = self.pid, 0, -1
+        size = _HEADER.unpack_from(framed)[0] if len(framed) >= _HEADER.size else -1
+        payload = framed[_HEADER.size :]
+        if size != len(payload) or not payload:
+            _, status = os.waitpid(pid, 0)  # it failed: its status says how
             _LOG.warning(
                 "%s worker ended with status %s; running it in this process",
                 self.name,
                 status,
             )
             return None, False
+        # a whole result: all the worker does after sending it is exit
+        _EXITING.append(pid)
+        _reap_exited()
         try:
             value = pickle.loads(payload)
             return (self.decode(value) if self.decode else value), True
@@ -158,6 +182,7 @@ def start_call(
         parallel = can_fork()
     if not parallel or not hasattr(os, "fork"):
         return pending
+    _reap_exited()
     read_fd, write_fd = os.pipe()
     try:
         pid = os.fork()
@@ -177,6 +202,7 @@ def start_call(
                 encode(value) if encode else value, protocol=pickle.HIGHEST_PROTOCOL
             )
             with os.fdopen(write_fd, "wb") as pipe:
+                pipe.write(_HEADER.pack(len(payload)))
                 pipe.write(payload)
             code = 0
         except BaseException:

@@ -19,8 +19,8 @@ from shapely.geometry import box
 
 from allocation import _columns, _loading
 from allocation._mass_table import MassTable
-from allocation.results import MassItem
-from ifc_bridge.model import WallSegment
+from allocation.results import MassItem, Pier
+from ifc_bridge.model import Direction, WallSegment
 
 FAST = settings(max_examples=40, derandomize=True, deadline=None)
 
@@ -62,6 +62,35 @@ def test_kept_table_and_its_subsets_read_as_fresh(rows, data):
     subset = _columns.ends(picks)
     assert subset.shape == (len(picks), 2, 2)
     assert np.array_equal(subset, _fresh(picks))
+
+
+def _pier(i: int, start, end) -> Pier:
+    return Pier(
+        id=f"G{i}|0|0",
+        guid=f"G{i}",
+        name=f"W{i}",
+        pier=0,
+        part=0,
+        level="L1",
+        storey="L0",
+        direction=Direction.X,
+        start=start,
+        end=end,
+        height=3.0,
+        thickness=0.2,
+    )
+
+
+@FAST
+@given(st.lists(ends, min_size=1, max_size=2 * _columns._FEW), st.data())
+def test_pier_lengths_are_each_piers_length_few_or_many(rows, data):
+    piers = tuple(_pier(i, s, e) for i, (s, e) in enumerate(rows))
+    expect = [p.length for p in piers]  # Pier.length, the definition
+    assert _columns.pier_lengths(piers) == expect  # fresh read, bit for bit
+    _columns.ends(piers, keep=True)
+    assert _columns.pier_lengths(piers) == expect  # from the kept table
+    some = data.draw(st.lists(st.sampled_from(piers), min_size=1))
+    assert _columns.pier_lengths(some) == [p.length for p in some]
 
 
 def test_records_not_all_from_a_kept_table_are_read_afresh():

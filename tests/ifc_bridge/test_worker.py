@@ -79,6 +79,40 @@ def test_a_worker_that_raises_raises_the_same_error_here() -> None:
 
 
 @needs_fork
+def test_a_result_cut_short_is_replaced_by_the_serial_call(monkeypatch, caplog) -> None:
+    real = worker._HEADER
+
+    class _Overstated:  # the worker announces one byte more than it sends
+        size = real.size
+        unpack_from = staticmethod(real.unpack_from)
+
+        @staticmethod
+        def pack(n: int) -> bytes:
+            return real.pack(n + 1)
+
+    monkeypatch.setattr(worker, "_HEADER", _Overstated)
+    pending = worker.start_call("test", _pid_and, 5, parallel=True)
+    assert pending.result() == (os.getpid(), 5)  # common practice: the serial answer
+    assert "worker ended with status" in caplog.text
+
+
+@needs_fork
+def test_a_worker_that_sent_its_result_is_reaped_without_waiting() -> None:
+    import time
+
+    pending = worker.start_call("test", _square, 9, parallel=True)
+    pid = pending.pid
+    assert pending.result() == 81
+    deadline = time.monotonic() + 10.0
+    while pid in worker._EXITING and time.monotonic() < deadline:
+        time.sleep(0.01)
+        worker._reap_exited()
+    assert pid not in worker._EXITING
+    with pytest.raises(ChildProcessError):
+        os.waitpid(pid, 0)  # reaped: no zombie left
+
+
+@needs_fork
 def test_cancel_stops_the_worker() -> None:
     pending = worker.start_call("test", _square, 4, parallel=True)
     pid = pending.pid
