@@ -124,15 +124,24 @@ class _LineSums:
                 {lid for p in keys for lid in self.index.get(p, ())},
                 key=self.order.__getitem__,
             )
-            m = _matrix(items, rows, len(keys))
-            sums = {}
-            for lid in hit:
-                cols = [col[p] for p in self.members[lid] if p in col]
-                # a left-to-right sum, as sum() gives (from 0: only -0.0 differs, and
-                # only the magnitude is used)
-                sums[lid] = np.cumsum(m[:, cols], axis=1)[:, -1].tolist()
-            for r, n in enumerate(rows):
-                out[n] = (items[n][0], {lid: v[r] for lid, v in sums.items()})
+            if not hit:
+                for n in rows:
+                    out[n] = (items[n][0], {})
+                continue
+            cols = [[col[p] for p in self.members[lid] if p in col] for lid in hit]
+            # each line's piers as a row of column indices, padded with an added
+            # column of zeros; a left-to-right running sum along each row, as sum()
+            # gives (adding the trailing zeros, or starting from 0, only turns -0.0
+            # into 0.0, and only the magnitude is used)
+            width = len(keys)
+            take = np.full((len(hit), max(map(len, cols))), width, dtype=np.intp)
+            for i, c in enumerate(cols):
+                take[i, : len(c)] = c
+            m = np.zeros((len(rows), width + 1), dtype=np.float64)
+            m[:, :width] = _matrix(items, rows, width)
+            sums = np.cumsum(m[:, take], axis=2)[:, :, -1].tolist()
+            for n, row in zip(rows, sums, strict=True):
+                out[n] = (items[n][0], dict(zip(hit, row, strict=True)))
         return out  # type: ignore[return-value]
 
 
