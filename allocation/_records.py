@@ -6,7 +6,9 @@ thousands of piers, mass items, point loads and envelope entries, so that cost i
 good share of the run time. :func:`maker` gives a keyword function, and
 :func:`records` a column-wise builder, that make the same records: instances of the
 same class with the same slot values and nothing else, which ``==``, ``hash`` and
-``repr`` cannot tell from those the class itself builds.
+``repr`` cannot tell from those the class itself builds. Each field is stored through
+its slot's own descriptor (what ``object.__setattr__`` finds and calls), skipping
+that look-up.
 
 Only for frozen slots dataclasses without ``__post_init__`` (nothing to check or
 derive) whose fields are all ``init`` fields without ``default_factory``.
@@ -15,6 +17,7 @@ derive) whose fields are all ``init`` fields without ``default_factory``.
 from __future__ import annotations
 
 import dataclasses
+import types
 from collections.abc import Callable, Sequence
 from itertools import repeat
 from typing import Any, TypeVar
@@ -45,6 +48,15 @@ def _fields(cls: type) -> tuple[dataclasses.Field, ...]:
     return fields
 
 
+def _slot(cls: type, name: str) -> types.MemberDescriptorType | None:
+    """The slot descriptor that stores field ``name`` of ``cls``, or None."""
+    for klass in cls.__mro__:
+        if name in klass.__dict__:
+            found = klass.__dict__[name]
+            return found if isinstance(found, types.MemberDescriptorType) else None
+    return None
+
+
 def _compile(cls: type, fields: tuple[dataclasses.Field, ...], *, keywords: bool):
     scope: dict[str, Any] = {"new": object.__new__, "put": object.__setattr__}
     scope["cls"] = cls
@@ -61,7 +73,13 @@ def _compile(cls: type, fields: tuple[dataclasses.Field, ...], *, keywords: bool
         else (f"def make({', '.join(params)}):")
     )
     lines = [head, "    o = new(cls)"]
-    lines += [f"    put(o, {f.name!r}, {f.name})" for f in fields]
+    for f in fields:
+        slot = _slot(cls, f.name)
+        if slot is None:
+            lines.append(f"    put(o, {f.name!r}, {f.name})")
+        else:  # the slot's own setter: what object.__setattr__ ends up calling
+            scope[f"_set_{f.name}"] = slot.__set__
+            lines.append(f"    _set_{f.name}(o, {f.name})")
     lines.append("    return o")
     exec("\n".join(lines), scope)  # source made of the field names only
     make = scope["make"]

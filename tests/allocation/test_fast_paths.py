@@ -8,6 +8,7 @@ the line sums agree with the one-at-a-time code, bit for bit. Invented values on
 
 from __future__ import annotations
 
+import dataclasses
 import gc
 import math
 import pickle
@@ -95,6 +96,27 @@ def test_maker_pier_keeps_the_defaults_and_stays_frozen():
     assert (made.stiffness, made.line) == (0.0, "")
     with pytest.raises(AttributeError):
         made.line = "L1-X-1"  # frozen: FrozenInstanceError is an AttributeError
+
+
+@dataclasses.dataclass(frozen=True, slots=True, kw_only=True)
+class _Base:
+    a: float
+    b: str = "b"
+
+
+@dataclasses.dataclass(frozen=True, slots=True, kw_only=True)
+class _Derived(_Base):
+    c: tuple[float, ...] = ()
+
+
+def test_maker_sets_slots_of_a_base_class_too():
+    made = _records.maker(_Derived)(a=-0.0, c=(1.0,))
+    assert made == _Derived(a=-0.0, c=(1.0,))
+    assert (type(made), repr(made)) == (_Derived, repr(_Derived(a=-0.0, c=(1.0,))))
+    assert _records.records(_Derived, a=[1.0, 2.0]) == [
+        _Derived(a=1.0),
+        _Derived(a=2.0),
+    ]
 
 
 @pytest.mark.parametrize("cls", [Level, WallSegment, dict])
