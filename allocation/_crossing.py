@@ -20,7 +20,7 @@ from dataclasses import dataclass
 import shapely
 from shapely.geometry import Polygon
 
-from allocation._memo import Memo, float_bytes
+from allocation._memo import Memo, float_bytes, wkb_of
 from allocation.results import ResistanceLine
 from ifc_bridge.model import Diaphragm, Direction
 
@@ -88,7 +88,7 @@ class RegionProbe:
     def __init__(self, diaphragm: Diaphragm) -> None:
         self.diaphragm = diaphragm
         self.bounds = diaphragm.polygon.bounds
-        self.wkb = diaphragm.polygon.wkb
+        self.wkb = wkb_of(diaphragm.polygon)
         self._filled: Polygon | None = None
         self._edges: dict[Direction, list[float]] = {}
 

@@ -26,7 +26,7 @@ from shapely.ops import unary_union
 
 from allocation._columns import floats, points
 from allocation._mass_table import MassTable
-from allocation._memo import Memo, float_bytes
+from allocation._memo import Memo, float_bytes, wkb_of
 from allocation._tributary import _PLACES, Slot, _place, _slots_key, _spread_shares
 from allocation.results import LevelLoad, LineId, MassItem
 from ifc_bridge.model import Diaphragm, Direction
@@ -90,7 +90,7 @@ def _make_arrays(items: Sequence[MassItem]) -> _Items:
             weight.tobytes(),
             xy.tobytes(),
             spread,
-            tuple(polygons[i].wkb for i in spread),
+            tuple(wkb_of(polygons[i]) for i in spread),
             tuple(weights[i] for i in spread),
         ),
     )

@@ -11,11 +11,12 @@ gives.
 from __future__ import annotations
 
 import struct
+import weakref
 from collections import OrderedDict
 from collections.abc import Callable, Hashable, Iterable
 from typing import Generic, TypeVar
 
-__all__ = ["Memo", "float_bytes"]
+__all__ = ["Memo", "float_bytes", "wkb_of"]
 
 V = TypeVar("V")
 
@@ -28,6 +29,31 @@ def float_bytes(values: Iterable[float]) -> bytes:
     """
     flat = tuple(values)
     return struct.pack(f"{len(flat)}d", *flat)
+
+
+_WKB: dict[int, tuple[weakref.ref, bytes]] = {}
+
+
+def wkb_of(geometry) -> bytes:
+    """``geometry.wkb``, written once per geometry object: an exact key part.
+
+    Shapely geometries are immutable, so the bytes of one object never change; they
+    are kept while it lives (a weak reference tells a new object at a reused ``id``
+    apart) and forgotten with it.
+    """
+    key = id(geometry)
+    held = _WKB.get(key)
+    if held is not None and held[0]() is geometry:
+        return held[1]
+    wkb = geometry.wkb
+    _WKB[key] = (weakref.ref(geometry, lambda _gone, key=key: _forget(key)), wkb)
+    return wkb
+
+
+def _forget(key: int) -> None:
+    held = _WKB.get(key)
+    if held is not None and held[0]() is None:  # not a newer object at that id
+        del _WKB[key]
 
 
 class Memo(Generic[V]):

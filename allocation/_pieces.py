@@ -26,7 +26,7 @@ from shapely.geometry import MultiLineString, Polygon
 from shapely.geometry.base import BaseGeometry
 from shapely.ops import split
 
-from allocation._memo import Memo, float_bytes
+from allocation._memo import Memo, float_bytes, wkb_of
 from ifc_bridge.model import Direction
 
 __all__ = ["Piece", "Support", "split_key", "split_region", "to_local", "to_plan"]
@@ -215,7 +215,7 @@ def split_key(
     for s in supports:
         flat += (s.v, len(s.segments), *(c for ab in s.segments for c in ab))
         flat += (len(s.spans), *(c for ab in s.spans for c in ab))
-    return (local.wkb, float_bytes(flat))
+    return (wkb_of(local), float_bytes(flat))
 
 
 def split_region(

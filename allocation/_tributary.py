@@ -17,7 +17,7 @@ import shapely
 from shapely.geometry import Point, Polygon
 from shapely.ops import nearest_points
 
-from allocation._memo import Memo
+from allocation._memo import Memo, wkb_of
 from allocation._pieces import (
     Piece,
     Support,
@@ -169,7 +169,7 @@ def _spread_shares(
     """:func:`_spread` with piece indices; from memory for a typical floor."""
     if slots_key is None:
         slots_key = _slots_key(slots)
-    key = (polygon.wkb, direction, slots_key)
+    key = (wkb_of(polygon), direction, slots_key)
     return _SPREADS.get(key, lambda: _shares(polygon, slots, direction))
 
 
@@ -269,7 +269,7 @@ def _slots_key(slots: Sequence[Slot]) -> Hashable:
         return keys
     return tuple(
         (
-            slot.piece.local.wkb,
+            wkb_of(slot.piece.local),
             repr(tuple((s.v, s.segments) for s in slot.piece.supports)),  # rare path
         )
         for slot in slots

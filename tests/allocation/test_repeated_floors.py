@@ -16,8 +16,8 @@ from hypothesis import given, settings
 from hypothesis import strategies as st
 from shapely.geometry import Polygon
 
-from allocation import _crossing, _loading, _pieces, _tributary
-from allocation._memo import Memo
+from allocation import _crossing, _loading, _memo, _pieces, _tributary
+from allocation._memo import Memo, wkb_of
 from allocation._pieces import Support, split_region
 from allocation._tributary import Slot, host, make_slots, on_line
 from allocation.lines import find_lines, line_crossing
@@ -67,6 +67,21 @@ def test_memo_keeps_the_most_recent_entries_and_computes_once():
     assert len(memo) == 2
     memo.get(2, lambda: compute(2))  # 2 was the least recently used: evicted
     assert calls == [1, 2, 3, 2]
+
+
+def test_geometry_bytes_are_written_once_and_forgotten_with_the_geometry():
+    import gc
+
+    slab = Polygon(SLAB.exterior, SLAB.interiors)
+    first = wkb_of(slab)
+    assert first == slab.wkb  # the bytes shapely writes
+    assert wkb_of(slab) is first  # kept: not written again
+    key = id(slab)
+    del slab
+    gc.collect()
+    assert key not in _memo._WKB  # forgotten with its geometry
+    other = Polygon([(0, 0), (1, 0), (1, 1)])
+    assert wkb_of(other) == other.wkb  # a new object, whatever its id: its own bytes
 
 
 def test_split_from_memory_carries_this_floors_line_ids():
