@@ -67,14 +67,16 @@ class WallShares:
         guid = self.columns.guid
         out = []
         for (source, q), members in groups.items():
-            rows = np.flatnonzero(np.isin(combo, members))
+            hit = combo == members[0] if len(members) == 1 else np.isin(combo, members)
+            rows = np.flatnonzero(hit)
+            walls = self.walls[rows].tolist()
             out.append(
                 WeightItem(
                     source=source,
                     quantity=math.fsum(self.area[rows].tolist()),
                     unit_load=q,
                     weight=math.fsum(self.weight[rows].tolist()),
-                    guids=tuple(sorted(set(map(guid.__getitem__, self.walls[rows])))),
+                    guids=tuple(sorted(set(map(guid.__getitem__, walls)))),
                 )
             )
         return out
