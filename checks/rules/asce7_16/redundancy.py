@@ -20,6 +20,7 @@ below the evaluated value warning.
 from __future__ import annotations
 
 import logging
+from collections.abc import Mapping
 from dataclasses import dataclass
 from operator import attrgetter
 
@@ -28,9 +29,9 @@ from allocation.errors import AllocationError
 from allocation.results import Allocation, Pier, PierId
 from checks.findings import Finding, Severity
 from checks.project import ProjectConfig
-from checks.rules._support import level_guids
+from checks.rules._support import allocated_piers, level_guids
 from checks.rules.asce7_16.seismic_design_category import seismic_design_category
-from checks.rules.asce7_16.unit_shear import _Capacities
+from checks.rules.asce7_16.unit_shear import _Capacities, allocated_capacities
 from ifc_bridge.model import BuildingModel, Direction
 
 __all__ = ["Redundancy", "check_redundancy", "evaluate_redundancy"]
@@ -127,13 +128,19 @@ def _extreme_without(
 def _strengths(
     piers: list[Pier],
     config: ProjectConfig,
-    capacities: _Capacities | None = None,
+    capacities: Mapping[PierId, tuple[float | None, float]] | None = None,
     lengths: dict[PierId, float] | None = None,
 ) -> dict[PierId, float]:
-    found = capacities or _Capacities(config)
+    """Strength of each pier (capacity × length), or its length where any pier has
+    no capacity; ``capacities`` and ``lengths`` as :func:`allocated_capacities` and
+    ``Pier.length`` give them, when the caller has them."""
     if lengths is None:
         lengths = dict(zip(map(_ID, piers), pier_lengths(piers), strict=True))
-    caps = {p.id: found.of(p, lengths[p.id])[0] for p in piers}
+    if capacities is None:
+        found = _Capacities(config)
+        caps = {p.id: found.of(p, lengths[p.id])[0] for p in piers}
+    else:
+        caps = {p.id: capacities[p.id][0] for p in piers}
     if any(c is None for c in caps.values()):
         return lengths
     return {p.id: caps[p.id] * lengths[p.id] for p in piers}
@@ -179,14 +186,16 @@ def evaluate_redundancy(
     for p in allocation.piers:
         if p.direction is not None:
             stories.setdefault(p.level, []).append(p)
-    capacities = _Capacities(config)
+    capacities = allocated_capacities(allocation, config)
+    allocated = allocated_piers(allocation)
+    length_of = dict(zip(map(_ID, allocated.piers), allocated.lengths, strict=True))
     for lv in allocation.levels:
         if V <= 0 or lv.story_shear <= STORY_SHARE * V:
             continue
         story = stories.get(lv.level, [])
         for d in (Direction.X, Direction.Y):
             own = [p for p in story if p.direction is d]
-            lengths = dict(zip(map(_ID, own), pier_lengths(own), strict=True))
+            lengths = {p.id: length_of[p.id] for p in own}  # Pier.length
             strength = _strengths(own, config, capacities, lengths)
             total = sum(strength.values())
             for p in own:

@@ -167,6 +167,30 @@ def pier_capacity(pier: Pier, config: ProjectConfig) -> tuple[float | None, floa
     return _Capacities(config).of(pier, pier.length)
 
 
+_LAST_CAPACITIES: list[
+    tuple[Allocation, ProjectConfig, dict[PierId, tuple[float | None, float]]]
+] = []  # the last allocation's, with its config
+
+
+def allocated_capacities(
+    allocation: Allocation, config: ProjectConfig
+) -> dict[PierId, tuple[float | None, float]]:
+    """:func:`pier_capacity` of every allocated pier (those with a direction), by id.
+
+    Worked out once per allocation and config (the unit-shear and redundancy rules
+    both read them), at the lengths of :func:`allocated_piers`.
+    """
+    if _LAST_CAPACITIES:
+        held, cfg, table = _LAST_CAPACITIES[0]
+        if held is allocation and cfg is config:
+            return table
+    caps = _Capacities(config)
+    piers, lengths, _ = allocated_piers(allocation)
+    table = {p.id: caps.of(p, n) for p, n in zip(piers, lengths, strict=True)}
+    _LAST_CAPACITIES[:] = [(allocation, config, table)]
+    return table
+
+
 def pier_checks(
     allocation: Allocation,
     config: ProjectConfig,
@@ -190,12 +214,12 @@ def pier_checks(
     """
     rho = _rho(config, rho)
     f = seismic_factor(config.design_basis)
-    caps = _Capacities(config)
+    caps = allocated_capacities(allocation, config)
     holds = hold_downs or {}
     out: dict[PierId, PierCheck] = {}
     for pier, length, force in zip(*allocated_piers(allocation), strict=True):
         v = f * rho * force / length
-        capacity, factor = caps.of(pier, length)
+        capacity, factor = caps[pier.id]
         dcr = v / capacity if capacity else None
         hold = holds.get(pier.id)
         out[pier.id] = _pier_check(

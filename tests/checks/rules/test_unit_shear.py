@@ -196,3 +196,23 @@ def test_allocated_piers_are_the_per_pier_lengths_and_forces():
     assert allocated_piers(alloc) is found
     other = allocation(piers, {piers[1].id: 10.0})
     assert allocated_piers(other).forces == [0.0, 10.0]
+
+
+def test_allocated_capacities_are_each_piers_capacity_once_per_allocation():
+    # SDPWS-2015 §4.3.3 / §4.3.4.2 through pier_capacity, pier by pier; the table is
+    # worked out once per allocation and config
+    from checks.rules.asce7_16.unit_shear import allocated_capacities
+
+    piers = [
+        pier("A", start=(0.0, 0.0), end=(1.0, 0.0), height=3.0),  # h/b 3: reduced
+        pier("B", start=(0.0, 2.0), end=(0.0, 6.0)),
+        pier("C", start=(5.0, 0.0), end=(9.0, 0.0), assembly="none"),
+    ]
+    cfg = config(assemblies=(assembly(),))
+    alloc = allocation(piers, {p.id: 1000.0 for p in piers})
+    table = allocated_capacities(alloc, cfg)
+    assert table == {p.id: pier_capacity(p, cfg) for p in piers}
+    assert table[piers[2].id] == (None, 1.0)  # no assembly of that name
+    assert allocated_capacities(alloc, cfg) is table
+    other = config(assemblies=(assembly(capacity=100 * PLF),))
+    assert allocated_capacities(alloc, other)[piers[1].id][0] < table[piers[1].id][0]
