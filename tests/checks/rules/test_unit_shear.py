@@ -185,7 +185,9 @@ def test_allocated_piers_are_the_per_pier_lengths_and_forces():
     piers = [
         pier("A", start=(0.0, 0.0), end=(3.0, 4.0 + 1e-9)),
         pier("B", start=(0.0, 2.0), end=(0.0, 9.5)),
-        dataclasses.replace(pier("C", start=(1.0, 1.0), end=(2.0, 2.0)), direction=None),
+        dataclasses.replace(
+            pier("C", start=(1.0, 1.0), end=(2.0, 2.0)), direction=None
+        ),
     ]
     alloc = allocation(piers, {piers[0].id: -1234.5})
     found = allocated_piers(alloc)
