@@ -2,7 +2,11 @@
 
 from __future__ import annotations
 
+import math
+
 import pytest
+from hypothesis import given, settings
+from hypothesis import strategies as st
 
 from checks.rules.model.duplicate_walls import check_duplicate_walls, overlap_fraction
 from ifc_bridge.model import BuildingModel, Level, WallSegment
@@ -61,3 +65,52 @@ def test_cells_found_with_arrays_give_the_findings_of_the_plain_grid(monkeypatch
     assert sorted(f.guids for f in found) == [("L12", "L1c"), ("L22", "L2c")]
     monkeypatch.setattr(duplicate_walls, "_CODABLE", 1.0)  # every cell, by dictionary
     assert check_duplicate_walls(model) == found
+
+
+
+def _near_copies(bases, jitters) -> list[WallSegment]:
+    """Walls and copies of them a little off: moved, longer, turned (invented)."""
+    walls = []
+    for n, ((x, y, length, angle), copies) in enumerate(zip(bases, jitters, strict=True)):
+        ux, uy = math.cos(angle), math.sin(angle)
+        walls.append(_wall(f"W{n}", (x, y), (x + length * ux, y + length * uy)))
+        for m, (dx, dy, dl, da) in enumerate(copies):
+            cx, cy = math.cos(angle + da), math.sin(angle + da)
+            end = (x + dx + (length + dl) * cx, y + dy + (length + dl) * cy)
+            storey = "L1" if m % 3 else "L2"
+            walls.append(_wall(f"W{n}c{m}", (x + dx, y + dy), end, storey))
+    return walls
+
+
+_BASE = st.tuples(
+    st.floats(-30, 30),
+    st.floats(-30, 30),
+    st.floats(0.3, 8),
+    st.sampled_from([0.0, math.pi / 2, 0.7, 3.0]),
+)
+# moves at the edge of half the thickness (0.075 m), lengths, turns at the edge of
+# the 2 degree parallel tolerance
+_COPY = st.tuples(
+    st.sampled_from([0.0, 0.075, -0.075, 0.0750001, 1e-7, 0.3]),
+    st.sampled_from([0.0, 0.075, -0.0749999, 2.0, 0.5]),
+    st.sampled_from([0.0, -0.2, 3.0, 1e-9]),
+    st.sampled_from([0.0, math.radians(2.0), -math.radians(2.0) - 1e-12, 0.01]),
+)
+
+
+@settings(max_examples=60, derandomize=True, deadline=None)
+@given(st.lists(_BASE, min_size=1, max_size=8), st.data())
+def test_array_pairs_give_the_findings_of_every_pair(bases, data):
+    # common practice: the array pre-test only leaves out pairs the exact test
+    # rejects, so the findings (and their order) are those of testing every pair
+    from checks.rules.model import duplicate_walls
+
+    jitters = [data.draw(st.lists(_COPY, max_size=3)) for _ in bases]
+    model = _model(*_near_copies(bases, jitters))
+    found = check_duplicate_walls(model)
+    assert set(duplicate_walls._pairs(model.walls)) <= set(
+        duplicate_walls._pairs_by_dict(model.walls)
+    )
+    with pytest.MonkeyPatch.context() as mp:
+        mp.setattr(duplicate_walls, "_CODABLE", -1.0)  # every pair, by dictionary
+        assert check_duplicate_walls(model) == found
