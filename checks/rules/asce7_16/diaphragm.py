@@ -23,6 +23,7 @@ from __future__ import annotations
 from collections import defaultdict
 from dataclasses import dataclass
 
+import shapely
 from shapely.geometry import Point
 
 from allocation.results import (
@@ -150,6 +151,10 @@ def _reactions(
                 side = _side(piece.centroid[ax], lines[line_id].offset)
                 out[(line_id, piece.diaphragm)][side] += abs(share) * scale
     for pl in fr.point_loads:
+        if len(pl.shares) == 1:  # the usual load: a wall that stacks on a line
+            line = lines.get(pl.shares[0][0])
+            if line is not None and abs(pl.location[ax] - line.offset) <= tol:
+                continue  # as below
         shares = [(lid, s) for lid, s in pl.shares if lid in lines]
         if (
             len(shares) == 1
@@ -167,20 +172,26 @@ def _reactions(
 
 
 def _chord(
-    piece: DiaphragmPiece, lines: dict[str, ResistanceLine], F: float
+    piece: DiaphragmPiece,
+    lines: dict[str, ResistanceLine],
+    F: float,
+    shape: tuple[float, tuple[float, float, float, float]] | None = None,
 ) -> Chord | None:
+    """The chord of one piece; ``shape`` is its polygon's (area, bounds) when the
+    caller has them (read for many pieces at once)."""
     ax = perp(piece.direction)
+    area, bounds = shape or (piece.polygon.area, piece.polygon.bounds)
     sup = [lines[s] for s in piece.supports if s in lines]
     if len(sup) == 2:
         span, cant = abs(sup[0].offset - sup[1].offset), False
     elif len(sup) == 1:
-        lo, hi = piece.polygon.bounds[ax], piece.polygon.bounds[ax + 2]
+        lo, hi = bounds[ax], bounds[ax + 2]
         span, cant = max(abs(hi - sup[0].offset), abs(sup[0].offset - lo)), True
     else:
         return None
-    if span <= 1e-9 or piece.polygon.area <= 0.0:
+    if span <= 1e-9 or area <= 0.0:
         return None
-    depth = float(piece.polygon.area) / span
+    depth = float(area) / span
     M = F * span / (2.0 if cant else 8.0)
     return Chord(
         piece=piece.id,
@@ -220,6 +231,15 @@ def diaphragm_demands(
     by_story: dict[tuple[str, Direction], dict[str, ResistanceLine]] = {}
     for ln in allocation.lines:
         by_story.setdefault((ln.level, ln.direction), {})[ln.id] = ln
+    # every piece's area and bounds, read at once (Polygon.area, Polygon.bounds)
+    polygons = [piece.polygon for fr in allocation.flexible for piece in fr.pieces]
+    shapes = iter(
+        zip(
+            shapely.area(polygons).tolist(),
+            map(tuple, shapely.bounds(polygons).tolist()),
+            strict=True,
+        )
+    )
     for fr in allocation.flexible:
         lv = level_load(allocation, fr.level)
         scale = (
@@ -260,7 +280,7 @@ def diaphragm_demands(
                     )
                 )
         for piece in fr.pieces:
-            ch = _chord(piece, lines, f * abs(piece.force) * scale)
+            ch = _chord(piece, lines, f * abs(piece.force) * scale, next(shapes))
             if ch is not None:
                 chords.append(ch)
     return DiaphragmDemands(
