@@ -151,10 +151,6 @@ def _reactions(
                 side = _side(piece.centroid[ax], lines[line_id].offset)
                 out[(line_id, piece.diaphragm)][side] += abs(share) * scale
     for pl in fr.point_loads:
-        if len(pl.shares) == 1:  # the usual load: a wall that stacks on a line
-            line = lines.get(pl.shares[0][0])
-            if line is not None and abs(pl.location[ax] - line.offset) <= tol:
-                continue  # as below
         shares = [(lid, s) for lid, s in pl.shares if lid in lines]
         if (
             len(shares) == 1
@@ -175,12 +171,11 @@ def _chord(
     piece: DiaphragmPiece,
     lines: dict[str, ResistanceLine],
     F: float,
-    shape: tuple[float, tuple[float, float, float, float]] | None = None,
+    shape: tuple[float, tuple[float, float, float, float]],
 ) -> Chord | None:
-    """The chord of one piece; ``shape`` is its polygon's (area, bounds) when the
-    caller has them (read for many pieces at once)."""
+    """The chord of one piece; ``shape`` is its polygon's (area, bounds)."""
     ax = perp(piece.direction)
-    area, bounds = shape or (piece.polygon.area, piece.polygon.bounds)
+    area, bounds = shape
     sup = [lines[s] for s in piece.supports if s in lines]
     if len(sup) == 2:
         span, cant = abs(sup[0].offset - sup[1].offset), False
