@@ -19,14 +19,17 @@ import sys
 from collections.abc import Sequence
 from pathlib import Path
 
-from allocation.errors import AllocationError
-from checks.errors import CheckError
-from ifc_bridge.errors import IfcBridgeError
-from ifc_bridge.model import ModelError
-
 __all__ = ["main", "run"]
 
-_ERRORS = (IfcBridgeError, CheckError, AllocationError, ModelError)
+
+def _errors() -> tuple[type[Exception], ...]:
+    """The errors reported as one line (exit code 2); loaded when one is raised."""
+    from allocation.errors import AllocationError
+    from checks.errors import CheckError
+    from ifc_bridge.errors import IfcBridgeError
+    from ifc_bridge.model import ModelError
+
+    return (IfcBridgeError, CheckError, AllocationError, ModelError)
 
 
 def _inspect(args: argparse.Namespace) -> int:
@@ -42,6 +45,10 @@ def _init(args: argparse.Namespace) -> int:
 
 
 def _check(args: argparse.Namespace) -> int:
+    from ifc_bridge.open_file import open_in_background
+
+    # the model parses in a thread while the rest of shearline loads
+    open_in_background(args.model)
     from checks.report import terminal
 
     return terminal.check(
@@ -126,8 +133,8 @@ def main(argv: Sequence[str] | None = None) -> int:
     args = _parser().parse_args(argv)
     try:
         return args.func(args)
-    except _ERRORS as exc:
-        if args.debug:
+    except Exception as exc:
+        if args.debug or not isinstance(exc, _errors()):
             raise
         print(f"shearline: error: {exc}", file=sys.stderr)
         return 2

@@ -42,6 +42,10 @@ class CheckRun:
         allocation: Forces per level, line and pier.
         checks: The rule results (findings, per-pier numbers, rho).
         requirement_findings: Failures of the model requirements (IDS).
+        ifc: The open IFC file (``ifcopenshell.file``) the model was read from, to
+            look elements up by GlobalId (``run.ifc.by_guid(guid)``); it is kept
+            with the run, so freeing it (tens of milliseconds on a large model) is
+            left to the run's end, which a command-line run skips.
     """
 
     model: BuildingModel
@@ -49,6 +53,7 @@ class CheckRun:
     allocation: Allocation
     checks: object
     requirement_findings: tuple[Finding, ...] = ()
+    ifc: object | None = None
 
     @property
     def findings(self) -> tuple[Finding, ...]:
@@ -168,15 +173,18 @@ def check_model(
         AllocationError: The forces cannot be computed.
     """
     clock = _Stopwatch(timings)
+    from ifc_bridge.open_file import open_ifc, open_in_background
+
+    # the parse runs in a thread, outside the interpreter lock, while the reader's
+    # modules load (unless the caller began it already)
+    open_in_background(model_path)
     from ifc_bridge.gc_pause import collection_paused
-    from ifc_bridge.open_file import open_ifc
     from ifc_bridge.read_model import start_read
     from ifc_bridge.worker import PARALLEL_MIN, can_fork, start_call
 
     clock.lap("import")
     with collection_paused():
         ifc = open_ifc(model_path)
-        _check_unique_guids(ifc, str(model_path))
         # the IDS validation and the geometry pass need only the open file: they
         # run in workers while the config and the analysis modules load and the
         # walls' properties are read
@@ -191,6 +199,7 @@ def check_model(
         started = None
         try:
             started = start_read(ifc, str(model_path))
+            _check_unique_guids(ifc, str(model_path))  # while the workers run
             clock.lap("open")
             from allocation.allocate import allocate
             from checks.rules.run_rules import run_checks
@@ -231,6 +240,7 @@ def check_model(
         allocation=allocation,
         checks=checks,
         requirement_findings=found,
+        ifc=ifc,
     )
 
 

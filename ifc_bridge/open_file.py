@@ -5,6 +5,11 @@ with the ISO 10303-21 magic, declares a schema ifcopenshell knows, and ends with
 ``END-ISO-10303-21;`` trailer (ifcopenshell opens a file cut in half without a word).
 A header token ``IFC4X3`` (written by exporters before IFC 4.3 ADD2) is read as
 ``IFC4X3_ADD2``.
+
+ifcopenshell's parser releases the interpreter lock, so :func:`open_in_background`
+can parse a file in a thread while the caller imports modules and reads its config;
+:func:`open_ifc` of the same file then takes that parse (or its error) instead of
+parsing again.
 """
 
 from __future__ import annotations
@@ -12,6 +17,7 @@ from __future__ import annotations
 import logging
 import os
 import re
+import threading
 from pathlib import Path
 
 import ifcopenshell
@@ -19,7 +25,7 @@ import ifcopenshell.ifcopenshell_wrapper
 
 from ifc_bridge.errors import IfcFileError, IfcSchemaError
 
-__all__ = ["SUPPORTED_SCHEMAS", "open_ifc", "schema_name"]
+__all__ = ["SUPPORTED_SCHEMAS", "open_ifc", "open_in_background", "schema_name"]
 
 _LOG = logging.getLogger(__name__)
 
@@ -93,6 +99,63 @@ def _schema_name(ifc: ifcopenshell.file) -> str:
     return "IFC4X3" if schema.startswith("IFC4X3") else schema
 
 
+class _Opening:
+    """One file being parsed in a background thread: its result or its error."""
+
+    __slots__ = ("error", "key", "thread", "value")
+
+    def __init__(self, path: Path, key: tuple) -> None:
+        self.key, self.value, self.error = key, None, None
+        self.thread = threading.Thread(
+            target=self._run, args=(path,), name="shearline-open", daemon=True
+        )
+
+    def _run(self, path: Path) -> None:
+        try:
+            self.value = _open(path)
+        except BaseException as exc:  # handed to the caller of open_ifc
+            self.error = exc
+
+    def result(self) -> ifcopenshell.file:
+        self.thread.join()
+        if self.error is not None:
+            raise self.error
+        return self.value
+
+
+_OPENING: _Opening | None = None
+
+
+def _key(p: Path) -> tuple | None:
+    """Identity of a file's current content: path, size, modification time."""
+    try:
+        st = p.stat()
+    except OSError:
+        return None
+    return (str(p.resolve()), st.st_size, st.st_mtime_ns)
+
+
+def open_in_background(path: str | os.PathLike[str]) -> None:
+    """Start parsing ``path`` in a thread; :func:`open_ifc` of it takes the result.
+
+    The parse runs outside the interpreter lock, so the caller's own work (imports,
+    the config) goes on meanwhile. Never raises: an unusable file's error is raised
+    by :func:`open_ifc`. A file changed on disk after this call is parsed again by
+    :func:`open_ifc`. At most one file is kept: a call for another file replaces
+    the first; a second call for the same file does nothing.
+    """
+    global _OPENING
+    p = Path(path)
+    key = _key(p)
+    if key is None or (_OPENING is not None and _OPENING.key == key):
+        return  # missing (open_ifc says so), or begun already
+    # ifcopenshell registers its schemas on first use; do it here, not in two
+    # threads at once
+    ifcopenshell.ifcopenshell_wrapper.schema_by_name("IFC4")
+    _OPENING = _Opening(p, key)
+    _OPENING.thread.start()
+
+
 def open_ifc(path: str | os.PathLike[str]) -> ifcopenshell.file:
     """Open an IFC file for reading.
 
@@ -102,14 +165,25 @@ def open_ifc(path: str | os.PathLike[str]) -> ifcopenshell.file:
         path: File to open.
 
     Returns:
-        The parsed file.
+        The parsed file (the one :func:`open_in_background` began, when it was
+        begun on this file as it is now on disk).
 
     Raises:
         IfcFileError: Missing, unreadable, not IFC-SPF, truncated, garbled (a syntax
             error or no IfcProject) or unparsable.
         IfcSchemaError: The header names a schema other than IFC2X3, IFC4, IFC4X3.
     """
+    global _OPENING
     p = Path(path)
+    begun, _OPENING = _OPENING, None
+    if begun is not None:
+        if begun.key == _key(p):
+            return begun.result()
+        begun.thread.join()  # another file, or this one since changed: not used
+    return _open(p)
+
+
+def _open(p: Path) -> ifcopenshell.file:
     if not p.is_file():
         msg = f"{p}: file not found; check the path"
         raise IfcFileError(msg)

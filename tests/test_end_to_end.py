@@ -193,3 +193,12 @@ def test_closed_topic_quotes_the_revised_numbers(out_dir, tmp_path):
               if t.status == "Closed" and "over capacity" in t.title]
     assert closed, "revision 2 lengthens the overstressed wall"  # sample_models/README
     assert "Now: wall 'L2-C1' DCR" in closed[0].comments[-1].text
+
+
+def test_the_run_keeps_the_open_file_for_lookups_by_globalid(run):
+    # ISO 16739 (IFC): IfcRoot.GlobalId identifies an element; every pier names its
+    # IfcWall by it
+    pier = run.allocation.piers[0]
+    wall = run.ifc.by_guid(pier.guid)
+    assert wall.is_a("IfcWall")
+    assert wall.Name == pier.name
