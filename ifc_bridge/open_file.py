@@ -25,7 +25,13 @@ import ifcopenshell.ifcopenshell_wrapper
 
 from ifc_bridge.errors import IfcFileError, IfcSchemaError
 
-__all__ = ["SUPPORTED_SCHEMAS", "open_ifc", "open_in_background", "schema_name"]
+__all__ = [
+    "SUPPORTED_SCHEMAS",
+    "open_ifc",
+    "open_in_background",
+    "parsing",
+    "schema_name",
+]
 
 _LOG = logging.getLogger(__name__)
 
@@ -154,6 +160,12 @@ def open_in_background(path: str | os.PathLike[str]) -> None:
     ifcopenshell.ifcopenshell_wrapper.schema_by_name("IFC4")
     _OPENING = _Opening(p, key)
     _OPENING.thread.start()
+
+
+def parsing() -> bool:
+    """True while a parse begun by :func:`open_in_background` is still running."""
+    begun = _OPENING
+    return begun is not None and begun.thread.is_alive()
 
 
 def open_ifc(path: str | os.PathLike[str]) -> ifcopenshell.file:
