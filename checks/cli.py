@@ -45,17 +45,20 @@ def _init(args: argparse.Namespace) -> int:
 
 
 def _check(args: argparse.Namespace) -> int:
+    from ifc_bridge.gc_pause import collection_paused
     from ifc_bridge.open_file import open_in_background
 
-    # the model parses in a thread while the rest of shearline loads
+    # the model parses in a thread while the rest of shearline loads; the cyclic
+    # collector's passes over the modules being loaded free nothing
     open_in_background(args.model)
-    from checks.report import terminal
+    with collection_paused():
+        from checks.report import terminal
 
-    return terminal.check(
-        args.model, config=args.config, out=args.out, previous=args.previous,
-        annotate=args.annotate, bcf_version=args.bcf_version, units=args.units,
-        verbosity=args.verbosity,
-    )
+        return terminal.check(
+            args.model, config=args.config, out=args.out, previous=args.previous,
+            annotate=args.annotate, bcf_version=args.bcf_version, units=args.units,
+            verbosity=args.verbosity,
+        )
 
 
 def _demo(args: argparse.Namespace) -> int:

@@ -45,3 +45,12 @@ def test_workers_change_no_finding_and_no_force(monkeypatch, forked_calls) -> No
         "requirements",
     }
     assert all(t >= 0.0 for t in timings.values())
+
+
+def test_every_module_loaded_during_the_parse_exists() -> None:
+    import importlib
+
+    from checks.pipeline import _LATER_MODULES
+
+    for name in _LATER_MODULES:
+        assert importlib.import_module(name).__name__ == name
