@@ -96,12 +96,33 @@ def _write_report(path: Path, run, system: DisplayUnits) -> Path:
     return write_report(path, run, system=system)
 
 
-def _write_findings(
-    run, out: Path, previous: str | os.PathLike | None, version: str
+def _write_rest(
+    run,
+    out: Path,
+    previous: str | os.PathLike | None,
+    version: str,
+    system: DisplayUnits,
 ) -> dict[str, Path]:
+    """results.json, walls.csv, lines.csv, findings.json and findings.bcf."""
+    from checks.report.csv_tables import write_lines_csv, write_walls_csv
     from checks.report.findings_out import write_findings
+    from checks.report.results_json import write_results_json
 
-    return write_findings(run, out, previous=previous, version=version)
+    checks = getattr(run.checks, "pier_checks", {})
+    written = {
+        "results": write_results_json(
+            out / "results.json",
+            run.allocation,
+            source=str(run.model.source),
+            pier_checks=checks,
+        ),
+        "walls": write_walls_csv(
+            out / "walls.csv", run.allocation, pier_checks=checks, system=system
+        ),
+        "lines": write_lines_csv(out / "lines.csv", run.allocation, system=system),
+    }
+    written.update(write_findings(run, out, previous=previous, version=version))
+    return written
 
 
 def _report_done(pending, part: Path, path: Path) -> Path:
@@ -123,53 +144,38 @@ def write_all(
 ) -> dict[str, Path]:
     """Write every output into ``out``; returns kind -> path.
 
-    ``report.html``, the largest, and the findings files are written in two forked
-    workers while this process writes the others, on POSIX with two or more cores
-    and a large enough model (``parallel`` forces or forbids it); the files are the
-    same either way.
+    ``report.html``, the largest, is written in a forked worker, and the other files
+    in a second one, behind it, on POSIX with two or more cores and a large enough
+    model (``parallel`` forces or forbids it); this process only waits, so the two
+    have the cores to themselves and no page of it is copied for its own writes. The
+    files are the same either way.
 
     Raises:
         OutputError: A file cannot be written.
     """
-    from checks.report.csv_tables import write_lines_csv, write_walls_csv
-    from checks.report.results_json import write_results_json
     from ifc_bridge.gc_pause import collection_paused
     from ifc_bridge.worker import can_fork, start_call
 
-    checks = getattr(run.checks, "pier_checks", {})
     written: dict[str, Path] = {}
     report = out / "report.html"
     if parallel is None:
         parallel = len(run.allocation.piers) >= _PARALLEL_PIERS and can_fork()
     with collection_paused():
         part, pending = _report_beside(run, report, system=system, parallel=parallel)
-        # findings.bcf and findings.json in a second worker, behind the report (the
-        # longest); a failed worker is replaced by the same call here, which raises
-        # the error the user sees
-        findings = start_call(
-            "findings", _write_findings, run, out, previous, bcf_version,
-            parallel=parallel, nice=10,
+        # a failed worker is replaced by the same call here, which raises the error
+        # the user sees
+        rest = start_call(
+            "tables and findings", _write_rest, run, out, previous, bcf_version,
+            system, parallel=parallel, nice=10,
         )
         try:
-            written["results"] = write_results_json(
-                out / "results.json",
-                run.allocation,
-                source=str(run.model.source),
-                pier_checks=checks,
-            )
-            written["walls"] = write_walls_csv(
-                out / "walls.csv", run.allocation, pier_checks=checks, system=system
-            )
-            written["lines"] = write_lines_csv(
-                out / "lines.csv", run.allocation, system=system
-            )
-            written.update(findings.result())
+            written.update(rest.result())
             written["report"] = _report_done(pending, part, report)
         except OSError as exc:
             msg = f"{out}: cannot write outputs: {exc}"
             raise OutputError(msg) from exc
         finally:
-            findings.cancel()
+            rest.cancel()
             pending.cancel()
             with contextlib.suppress(OSError):
                 part.unlink(missing_ok=True)

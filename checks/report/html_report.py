@@ -10,6 +10,7 @@ escaped.
 
 from __future__ import annotations
 
+from collections.abc import Iterator
 from html import escape
 from pathlib import Path
 
@@ -160,13 +161,25 @@ def render_report(run, *, system: DisplayUnits) -> str:
     Returns:
         The HTML document.
     """
+    return "".join(_report_parts(run, system))
+
+
+def _report_parts(run, system: DisplayUnits) -> Iterator[str]:
+    """The report's text in pieces (head, seismic section, each level, the rest)."""
     cfg, levels = run.config, list(reversed(run.allocation.levels))
     ctx = LevelContext.of(run, Formats.of(system))
     nav = "".join(
         f'<a href="#{html_id("level", lv.level)}">{escape(lv.level)}</a>'
         for lv in levels
     )
-    body = "".join(
+    yield (
+        f'<!DOCTYPE html><html lang="en"><head><meta charset="utf-8">'
+        f'<meta http-equiv="Content-Security-Policy" content="{_CSP}">'
+        f'<meta name="viewport" content="width=device-width, initial-scale=1">'
+        f"<title>{escape(cfg.name)} — shearline report</title><style>{_CSS}</style>"
+        f"</head><body>{_DEFS}"
+    )
+    yield "".join(
         [
             f"<h1>{escape(cfg.name)}: lateral force allocation and checks</h1>",
             f'<p class="meta">Model {escape(str(run.model.source))} ({escape(run.model.schema)});'
@@ -176,20 +189,17 @@ def render_report(run, *, system: DisplayUnits) -> str:
             f'<nav><a href="#seismic">Seismic</a>{nav}<a href="#findings">Findings</a>'
             '<a href="#assumptions">Assumptions</a></nav>',
             seismic_section(run, system),
-            *(level_section(ctx, lv) for lv in levels),
-            _findings(run, ctx.anchors),
-            '<section id="assumptions"><h2>Assumptions</h2><ul>'
-            + "".join(f"<li>{escape(x)}</li>" for x in _assumptions(run, system))
-            + "</ul>"
-            f'<p class="caution">{escape(CAUTION)}</p></section>',
         ]
     )
-    return (
-        f'<!DOCTYPE html><html lang="en"><head><meta charset="utf-8">'
-        f'<meta http-equiv="Content-Security-Policy" content="{_CSP}">'
-        f'<meta name="viewport" content="width=device-width, initial-scale=1">'
-        f"<title>{escape(cfg.name)} — shearline report</title><style>{_CSS}</style>"
-        f"</head><body>{_DEFS}{body}</body></html>"
+    for lv in levels:
+        yield level_section(ctx, lv)
+    yield _findings(run, ctx.anchors)
+    yield (
+        '<section id="assumptions"><h2>Assumptions</h2><ul>'
+        + "".join(f"<li>{escape(x)}</li>" for x in _assumptions(run, system))
+        + "</ul>"
+        f'<p class="caution">{escape(CAUTION)}</p></section>'
+        "</body></html>"
     )
 
 
@@ -207,5 +217,9 @@ def write_report(path: str | Path, run, *, system: DisplayUnits) -> Path:
         The path written.
     """
     path = Path(path)
-    path.write_text(render_report(run, system=system), encoding="utf-8")
+    # piece by piece: the whole page is never held as one string (10 MB on a
+    # 10,000-wall model) nor encoded in one go
+    with path.open("w", encoding="utf-8") as fh:
+        for part in _report_parts(run, system):
+            fh.write(part)
     return path

@@ -1,4 +1,4 @@
-"""Writing the report and findings in forked workers gives the same files as here.
+"""Writing the outputs in forked workers gives the same files as writing them here.
 
 Common practice: moving ``report.html`` and the findings files into worker processes
 (``os.fork``, POSIX)
@@ -48,7 +48,7 @@ def test_forked_report_gives_the_same_files(tmp_path, forked_calls):
     serial = _write(tmp_path / "serial", parallel=False)
     started = forked_calls
     forked = _write(tmp_path / "forked", parallel=True)
-    assert started == ["report", "findings"]  # really written by workers
+    assert started == ["report", "tables and findings"]  # really written by workers
     assert list(forked) == list(serial)  # same kinds, same order
     for name in _SAME_BYTES:
         assert (tmp_path / "forked" / name).read_bytes() == (
@@ -62,22 +62,27 @@ def test_forked_report_gives_the_same_files(tmp_path, forked_calls):
 
 
 @needs_fork
-def test_a_failed_findings_worker_is_replaced_by_the_serial_write(
+def test_a_failed_tables_and_findings_worker_is_replaced_by_the_serial_write(
     tmp_path, monkeypatch
 ):
-    parent, real = os.getpid(), outputs._write_findings
+    parent, real = os.getpid(), outputs._write_rest
 
-    def fails_in_the_worker(run, out, previous, version):
+    def fails_in_the_worker(run, out, previous, version, system):
         if os.getpid() != parent:
             msg = "worker failure for the test"
             raise RuntimeError(msg)
-        return real(run, out, previous, version)
+        return real(run, out, previous, version, system)
 
-    monkeypatch.setattr(outputs, "_write_findings", fails_in_the_worker)
+    monkeypatch.setattr(outputs, "_write_rest", fails_in_the_worker)
     serial = _write(tmp_path / "serial", parallel=False)
     written = _write(tmp_path / "forked", parallel=True)
+    assert list(written) == list(serial)
     assert _undated_topics(written["findings"]) == _undated_topics(serial["findings"])
     assert written["bcf"].stat().st_size > 0
+    for name in ("results.json", "walls.csv", "lines.csv"):
+        assert (tmp_path / "forked" / name).read_bytes() == (
+            tmp_path / "serial" / name
+        ).read_bytes(), name
 
 
 @needs_fork
