@@ -197,7 +197,7 @@ def check_model(
             ifc,
             model_path,
             parallel=len(ifc.by_type("IfcWall")) >= PARALLEL_MIN and can_fork(),
-            nice=10,  # behind the reader and the geometry workers: needed last
+            nice=19,  # behind the reader and the geometry workers: needed last
         )
         started = None
         try:

@@ -19,7 +19,14 @@ from typing import Any
 import ifcopenshell
 import ifcopenshell.util.element
 
-__all__ = ["Relations", "attr", "axis_and_body", "build_relations"]
+__all__ = [
+    "OpeningMaps",
+    "Relations",
+    "attr",
+    "axis_and_body",
+    "build_relations",
+    "opening_maps",
+]
 
 _ABSENT = 0xFFFFFFFF  # get_argument_index of an attribute the entity does not have
 _INDEX: dict[str, dict[str, int]] = {}  # "IFC4.IfcWall" -> attribute -> position
@@ -144,7 +151,51 @@ def _append(out: dict[int, list[Entity]], related: Any, value: Entity) -> None:
             out[element.id()].append(value)
 
 
-def build_relations(ifc: ifcopenshell.file) -> Relations:
+@dataclass(frozen=True, slots=True, kw_only=True)
+class OpeningMaps:
+    """The two relationship maps of openings, read before the others.
+
+    Attributes:
+        voids: Host id -> RelatedOpeningElement of each IfcRelVoidsElement.
+        fills: Opening id -> RelatedBuildingElement of each IfcRelFillsElement.
+    """
+
+    voids: dict[int, list[Entity]]
+    fills: dict[int, list[Entity]]
+
+
+def opening_maps(ifc: ifcopenshell.file) -> OpeningMaps:
+    """IfcRelVoidsElement and IfcRelFillsElement (IFC 4.3 §5.4.3) by entity id.
+
+    Common practice: as :func:`build_relations` reads them; few entities, so the
+    geometry pass (which meshes the openings) can start before the rest is read.
+
+    Args:
+        ifc: The open file.
+
+    Returns:
+        The two maps.
+    """
+    voids: dict[int, list[Entity]] = defaultdict(list)
+    fills: dict[int, list[Entity]] = defaultdict(list)
+    for rel in ifc.by_type("IfcRelVoidsElement"):
+        _append(
+            voids,
+            attr(rel, "RelatingBuildingElement"),
+            attr(rel, "RelatedOpeningElement"),
+        )
+    for rel in ifc.by_type("IfcRelFillsElement"):
+        _append(
+            fills,
+            attr(rel, "RelatingOpeningElement"),
+            attr(rel, "RelatedBuildingElement"),
+        )
+    return OpeningMaps(voids=dict(voids), fills=dict(fills))
+
+
+def build_relations(
+    ifc: ifcopenshell.file, openings: OpeningMaps | None = None
+) -> Relations:
     """Read the objectified relationships of a file into maps by entity id.
 
     Common practice: IfcRelContainedInSpatialStructure, IfcRelDefinesByType,
@@ -154,12 +205,15 @@ def build_relations(ifc: ifcopenshell.file) -> Relations:
 
     Args:
         ifc: The open file.
+        openings: The file's :func:`opening_maps`, when already read.
 
     Returns:
         The maps.
     """
+    if openings is None:
+        openings = opening_maps(ifc)
     maps: dict[str, dict[int, list[Entity]]] = {
-        k: defaultdict(list) for k in ("c", "t", "m", "d", "v", "f")
+        k: defaultdict(list) for k in ("c", "t", "m", "d")
     }
     for rel in ifc.by_type("IfcRelContainedInSpatialStructure"):
         _append(maps["c"], attr(rel, "RelatedElements"), attr(rel, "RelatingStructure"))
@@ -173,23 +227,11 @@ def build_relations(ifc: ifcopenshell.file) -> Relations:
             attr(rel, "RelatedObjects"),
             attr(rel, "RelatingPropertyDefinition"),
         )
-    for rel in ifc.by_type("IfcRelVoidsElement"):
-        _append(
-            maps["v"],
-            attr(rel, "RelatingBuildingElement"),
-            attr(rel, "RelatedOpeningElement"),
-        )
-    for rel in ifc.by_type("IfcRelFillsElement"):
-        _append(
-            maps["f"],
-            attr(rel, "RelatingOpeningElement"),
-            attr(rel, "RelatedBuildingElement"),
-        )
     return Relations(
         containers=dict(maps["c"]),
         types=dict(maps["t"]),
         materials=dict(maps["m"]),
         definitions=dict(maps["d"]),
-        voids=dict(maps["v"]),
-        fills=dict(maps["f"]),
+        voids=openings.voids,
+        fills=openings.fills,
     )

@@ -16,7 +16,7 @@ from numpy.typing import NDArray
 
 from ifc_bridge._geometry import Mesh
 from ifc_bridge._openings import opening_points
-from ifc_bridge._relations import Relations
+from ifc_bridge._relations import OpeningMaps, Relations
 from ifc_bridge.model import ImportIssue, IssueSeverity
 
 __all__ = ["unfilled_inserts", "unfilled_issues"]
@@ -25,9 +25,12 @@ _REACH = 0.1  # [m] beyond the wall faces
 
 
 def unfilled_inserts(
-    ifc: ifcopenshell.file, relations: Relations | None = None
+    ifc: ifcopenshell.file, relations: Relations | OpeningMaps | None = None
 ) -> list[ifcopenshell.entity_instance]:
-    """IfcDoor and IfcWindow entities that fill no opening (no IfcRelFillsElement)."""
+    """IfcDoor and IfcWindow entities that fill no opening (no IfcRelFillsElement).
+
+    ``relations``: the file's relations, or only its opening maps, when read.
+    """
     found = ifc.by_type("IfcDoor") + ifc.by_type("IfcWindow")
     if relations is None:
         return [e for e in found if not (getattr(e, "FillsVoids", None) or ())]

@@ -19,7 +19,12 @@ from dataclasses import dataclass
 import ifcopenshell
 
 from ifc_bridge._diaphragms import build_diaphragms, underside_reach
-from ifc_bridge._relations import Relations, build_relations
+from ifc_bridge._relations import (
+    OpeningMaps,
+    Relations,
+    build_relations,
+    opening_maps,
+)
 from ifc_bridge._semantics import wall_semantics
 from ifc_bridge._shape_pass import PendingShapes, start_shapes
 from ifc_bridge._unfilled import unfilled_inserts, unfilled_issues
@@ -43,7 +48,7 @@ Progress = Callable[[str, int, int], None]
 def _others(
     ifc: ifcopenshell.file,
     walls: Sequence[ifcopenshell.entity_instance],
-    relations: Relations,
+    relations: Relations | OpeningMaps,
     inserts: Sequence[ifcopenshell.entity_instance],
 ) -> list:
     """What the kernel meshes besides walls: slabs, openings, unfilled inserts."""
@@ -115,9 +120,16 @@ def start_read(ifc: ifcopenshell.file, source: str) -> StartedRead:
     if not walls:
         msg = f"{source}: has no IfcWall; model the walls as IfcWall (not proxies)"
         raise IfcContentError(msg)
-    relations = build_relations(ifc)
-    inserts = tuple(unfilled_inserts(ifc, relations))
-    shapes = start_shapes(ifc, walls, _others(ifc, walls, relations, inserts), scale)
+    # the openings' maps are all the geometry pass needs: it starts before the
+    # other relationships (containment, types, materials, properties) are read
+    openings = opening_maps(ifc)
+    inserts = tuple(unfilled_inserts(ifc, openings))
+    shapes = start_shapes(ifc, walls, _others(ifc, walls, openings, inserts), scale)
+    try:
+        relations = build_relations(ifc, openings)
+    except BaseException:
+        shapes.cancel()
+        raise
     return StartedRead(
         ifc=ifc,
         scale=scale,
