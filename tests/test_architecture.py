@@ -50,3 +50,25 @@ def test_model_and_allocation_import_without_ifcopenshell():  # STYLE.md §2.1
         check=True,
     )
     assert out.stdout.strip() == "False"
+
+
+def test_package_names_load_with_their_module():  # PEP 562 module __getattr__
+    code = (
+        "import sys, ifc_bridge, ifc_bridge.errors; "
+        "print('shapely' in sys.modules, 'ifc_bridge.model' in sys.modules); "
+        "from ifc_bridge import BuildingModel, IfcFileError; "
+        "import ifc_bridge.model as m, ifc_bridge.errors as e; "
+        "print(BuildingModel is m.BuildingModel, IfcFileError is e.IfcFileError)"
+    )
+    out = subprocess.run(
+        [sys.executable, "-c", code],
+        cwd=ROOT,
+        capture_output=True,
+        text=True,
+        check=True,
+    )
+    assert out.stdout.split() == ["False", "False", "True", "True"]
+    import ifc_bridge
+
+    with pytest.raises(AttributeError, match="no attribute 'Nope'"):
+        ifc_bridge.Nope  # noqa: B018
