@@ -29,7 +29,6 @@ __all__ = [
 ]
 
 _ABSENT = 0xFFFFFFFF  # get_argument_index of an attribute the entity does not have
-_INDEX: dict[str, dict[str, int]] = {}  # "IFC4.IfcWall" -> attribute -> position
 
 Entity = ifcopenshell.entity_instance
 
@@ -50,12 +49,9 @@ def attr(inst: Entity, name: str, *default: Any) -> Any:
     Returns:
         The attribute value, as ``getattr`` would return it.
     """
-    by_name = _INDEX.get(inst.is_a(True))
-    if by_name is None:
-        by_name = _INDEX[inst.is_a(True)] = {}
-    index = by_name.get(name)
-    if index is None:
-        index = by_name[name] = inst.get_argument_index(name)
+    # ifcopenshell's own index look-up (0.22 us) is cheaper than the type name and a
+    # cache keyed by it (0.36 us, measured)
+    index = inst.get_argument_index(name)
     if index == _ABSENT:
         return getattr(inst, name, *default)
     return inst.get_argument(index)
