@@ -37,11 +37,8 @@ def test_package_imports_only_downstream(package):  # DESIGN.md data flow
     assert {k: v for k, v in bad.items() if v} == {}
 
 
-def test_model_and_allocation_import_without_ifcopenshell():  # STYLE.md §2.1
-    code = (
-        "import sys, ifc_bridge, ifc_bridge.model, allocation.results, "
-        "allocation.parameters; print('ifcopenshell' in sys.modules)"
-    )
+def _fresh_python(code: str) -> str:
+    """What ``code`` prints in a new interpreter started in the project root."""
     out = subprocess.run(
         [sys.executable, "-c", code],
         cwd=ROOT,
@@ -49,7 +46,15 @@ def test_model_and_allocation_import_without_ifcopenshell():  # STYLE.md §2.1
         text=True,
         check=True,
     )
-    assert out.stdout.strip() == "False"
+    return out.stdout
+
+
+def test_model_and_allocation_import_without_ifcopenshell():  # STYLE.md §2.1
+    code = (
+        "import sys, ifc_bridge, ifc_bridge.model, allocation.results, "
+        "allocation.parameters; print('ifcopenshell' in sys.modules)"
+    )
+    assert _fresh_python(code).strip() == "False"
 
 
 def test_package_names_load_with_their_module():  # PEP 562 module __getattr__
@@ -60,14 +65,7 @@ def test_package_names_load_with_their_module():  # PEP 562 module __getattr__
         "import ifc_bridge.model as m, ifc_bridge.errors as e; "
         "print(BuildingModel is m.BuildingModel, IfcFileError is e.IfcFileError)"
     )
-    out = subprocess.run(
-        [sys.executable, "-c", code],
-        cwd=ROOT,
-        capture_output=True,
-        text=True,
-        check=True,
-    )
-    assert out.stdout.split() == ["False", "False", "True", "True"]
+    assert _fresh_python(code).split() == ["False", "False", "True", "True"]
     import ifc_bridge
 
     with pytest.raises(AttributeError, match="no attribute 'Nope'"):
