@@ -168,9 +168,12 @@ def main() -> None:
         )
     last = rows[-1]
     ok = last[6] <= 1.5 * last[4]
+    stages = last[7]
+    share = (stages["allocate"] + stages["check"]) / _total(stages)
     print(
         f"largest model: check/floor = {last[6] / last[4]:.2f} (target <= 1.5): "
-        f"{'met' if ok else 'missed'}"
+        f"{'met' if ok else 'missed'}; allocation + checks {share:.1%} of the stages "
+        f"(target < 10 %): {'met' if share < 0.10 else 'missed'}"
     )
 
 
