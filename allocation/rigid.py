@@ -148,7 +148,10 @@ def _rigidity(
     )
 
 
-_LAST_RIGIDITY: list[tuple[tuple, _Rigidity]] = []  # the last story's, for its other direction
+# Each story's rigidity, for its other direction: the allocation asks for every story
+# in X, then for every story again in Y. Bounded; oldest first out.
+_STORY_RIGIDITY: dict[tuple, tuple[tuple[Pier, ...], _Rigidity]] = {}
+_KEEP_STORIES = 256
 
 
 def _story_rigidity(
@@ -161,21 +164,21 @@ def _story_rigidity(
 
     The CR and J do not depend on the direction of the force: the allocation asks
     for the same piers (the very objects, in order; frozen) with the same centre of
-    mass and extent in X and then in Y.
+    mass and extent in X and, after the other stories, in Y.
     """
     key = (level, float_bytes((*center_of_mass, *plan_extent)))  # exact: -0.0 too
-    if _LAST_RIGIDITY:
-        (held, *rest), rig = _LAST_RIGIDITY[0]
-        if (
-            tuple(rest) == key
-            and len(held) == len(piers)
-            and all(map(is_, held, piers))
-        ):
+    found = _STORY_RIGIDITY.get(key)
+    if found is not None:
+        held, rig = found
+        if len(held) == len(piers) and all(map(is_, held, piers)):
             return rig
     rig = _rigidity(
         piers, level=level, center_of_mass=center_of_mass, plan_extent=plan_extent
     )
-    _LAST_RIGIDITY[:] = [((tuple(piers), *key), rig)]
+    _STORY_RIGIDITY.pop(key, None)
+    _STORY_RIGIDITY[key] = (tuple(piers), rig)
+    while len(_STORY_RIGIDITY) > _KEEP_STORIES:
+        del _STORY_RIGIDITY[next(iter(_STORY_RIGIDITY))]
     return rig
 
 

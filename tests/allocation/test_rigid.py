@@ -356,3 +356,44 @@ def test_story_rigidity_reused_only_for_the_same_piers():
     # +X+e: e = 0.05 * 10 = 0.5 m; J = 2 * 4 * 5**2 + 2 * 3 * 2.5**2 = 237.5;
     # N takes V/2 + V * e * k * d / J = 500 + 1000 * 0.5 * 4 * 5 / 237.5
     assert moved[0].pier_forces["N|L1|0|0"] == pytest.approx(500.0 + 10000.0 / 237.5)
+
+
+def test_each_storys_rigidity_serves_its_other_direction_after_the_other_stories(
+    monkeypatch,
+):
+    # The allocation asks for every story in X, then every story in Y; each story's
+    # CR and J are worked out once. Statics (common practice): CR of two equal Y
+    # walls at x = 2.5 and 7.5 is x = 5; of one X wall at y = 0, y = 0.
+    import allocation.rigid as rigid
+
+    made = []
+    real = rigid._rigidity
+    monkeypatch.setattr(
+        rigid, "_rigidity", lambda *a, **k: made.append(k["level"]) or real(*a, **k)
+    )
+    stories = {
+        lv: [
+            wall("W", "Y", 2.5, 5.0, 3.0, level=lv),
+            wall("E", "Y", 7.5, 5.0, 3.0, level=lv),
+            wall("S", "X", 5.0, 0.0, 4.0, level=lv),
+        ]
+        for lv in ("L3", "L2", "L1")
+    }
+
+    def story(lv, direction):
+        return allocate_rigid_story(
+            stories[lv],
+            level=lv,
+            story_shear=1000.0,
+            center_of_mass=(5.0, 5.0),
+            plan_extent=(0.0, 0.0, 10.0, 10.0),
+            direction=direction,
+            accidental_eccentricity=0.05,
+            amplify_torsion=False,
+        )
+
+    x = {lv: story(lv, X) for lv in stories}
+    y = {lv: story(lv, Y) for lv in stories}
+    assert made == ["L3", "L2", "L1"]  # once per story, not once per direction
+    for lv in stories:
+        assert x[lv][0].center_of_rigidity == y[lv][0].center_of_rigidity == (5.0, 0.0)
