@@ -4,7 +4,9 @@ Checks done before and after ifcopenshell parses the file: the file exists, star
 with the ISO 10303-21 magic, declares a schema ifcopenshell knows, and ends with the
 ``END-ISO-10303-21;`` trailer (ifcopenshell opens a file cut in half without a word).
 A header token ``IFC4X3`` (written by exporters before IFC 4.3 ADD2) is read as
-``IFC4X3_ADD2``.
+``IFC4X3_ADD2``. Raw non-ASCII bytes in the text (not allowed by ISO 10303-21, and
+dropped by ifcopenshell) are read as characters (:mod:`ifc_bridge._step_text`) and
+reported by :func:`raw_text_of`.
 
 ifcopenshell's parser releases the interpreter lock, so :func:`open_in_background`
 can parse a file in a thread while the caller imports modules and reads its config;
@@ -18,11 +20,13 @@ import logging
 import os
 import re
 import threading
+import weakref
 from pathlib import Path
 
 import ifcopenshell
 import ifcopenshell.ifcopenshell_wrapper
 
+from ifc_bridge._step_text import RawText, escape_raw_text
 from ifc_bridge.errors import IfcFileError, IfcSchemaError
 
 __all__ = [
@@ -30,6 +34,7 @@ __all__ = [
     "open_ifc",
     "open_in_background",
     "parsing",
+    "raw_text_of",
     "schema_name",
 ]
 
@@ -202,6 +207,7 @@ def _open(p: Path) -> ifcopenshell.file:
     try:
         declared = _header_schema(p)
         _check_trailer(p)
+        data = p.read_bytes()
     except OSError as exc:
         if isinstance(exc, IfcFileError):
             raise
@@ -215,12 +221,20 @@ def _open(p: Path) -> ifcopenshell.file:
             f"{', '.join(SUPPORTED_SCHEMAS)}"
         )
         raise IfcSchemaError(msg)
+    raw: tuple[RawText, ...] = ()
+    text = None  # the text to parse, when it is not the file as it is
+    if declared == "IFC4X3":
+        _LOG.info("%s: header schema IFC4X3 read as IFC4X3_ADD2", p)
+        data = _PRE_ADD2_RE.sub(rb"\1IFC4X3_ADD2\2", data, count=1)
+        text = data.decode("latin-1")
+    if not data.isascii():
+        text, raw = escape_raw_text(data)
+        _LOG.warning("%s: raw non-ASCII characters in %d instances", p, len(raw))
+    del data
     ifcopenshell.ifcopenshell_wrapper.get_log()  # clears messages of earlier reads
     try:
-        if declared == "IFC4X3":
-            _LOG.info("%s: header schema IFC4X3 read as IFC4X3_ADD2", p)
-            text = _PRE_ADD2_RE.sub(rb"\1IFC4X3_ADD2\2", p.read_bytes(), count=1)
-            ifc = ifcopenshell.file.from_string(text.decode("utf-8", "replace"))
+        if text is not None:
+            ifc = ifcopenshell.file.from_string(text)
         else:
             ifc = ifcopenshell.open(str(p))
     except ifcopenshell.SchemaError as exc:
@@ -235,7 +249,29 @@ def _open(p: Path) -> ifcopenshell.file:
     if _schema_name(ifc) not in SUPPORTED_SCHEMAS:
         msg = f"{p}: schema {ifc.schema!r} is not supported; export as IFC2X3 or IFC4"
         raise IfcSchemaError(msg)
+    if raw:
+        _RAW_TEXT[ifc] = raw
     return ifc
+
+
+# The raw non-ASCII characters found in each open file (kept while the file lives).
+_RAW_TEXT: weakref.WeakKeyDictionary = weakref.WeakKeyDictionary()
+
+
+def raw_text_of(ifc: ifcopenshell.file) -> tuple[RawText, ...]:
+    """Where :func:`open_ifc` found raw non-ASCII bytes in the file (and read them).
+
+    ISO 10303-21 §6.4.3.2: STEP strings are 7-bit, other characters escaped; see
+    :mod:`ifc_bridge._step_text`.
+
+    Args:
+        ifc: A file from :func:`open_ifc`.
+
+    Returns:
+        One entry per entity instance whose text held them; empty for a file that
+        follows the standard.
+    """
+    return _RAW_TEXT.get(ifc, ())
 
 
 def schema_name(ifc: ifcopenshell.file) -> str:

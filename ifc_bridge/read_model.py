@@ -27,11 +27,12 @@ from ifc_bridge._relations import (
 )
 from ifc_bridge._semantics import wall_semantics
 from ifc_bridge._shape_pass import PendingShapes, start_shapes
+from ifc_bridge._step_text import raw_text_issue
 from ifc_bridge._unfilled import unfilled_inserts, unfilled_issues
 from ifc_bridge.errors import IfcContentError
 from ifc_bridge.gc_pause import collection_paused
 from ifc_bridge.model import BuildingModel
-from ifc_bridge.open_file import open_ifc, schema_name
+from ifc_bridge.open_file import open_ifc, raw_text_of, schema_name
 from ifc_bridge.read_levels import StoreyLevels, read_levels
 from ifc_bridge.read_slabs import read_slab_plans
 from ifc_bridge.read_walls import prepare_walls, read_walls
@@ -277,7 +278,15 @@ def read_model_file(
     )
     segments = read.segments
     name, guid = _project(ifc)
-    issues = (*storeys.issues, *slab_issues, *dia_issues, *read.issues, *insert_issues)
+    text_issue = raw_text_issue(raw_text_of(ifc), ifc, source)
+    issues = (
+        *((text_issue,) if text_issue is not None else ()),
+        *storeys.issues,
+        *slab_issues,
+        *dia_issues,
+        *read.issues,
+        *insert_issues,
+    )
     _LOG.info(
         "%s: %d levels, %d diaphragms, %d wall segments, %d issues",
         source,
