@@ -229,7 +229,7 @@ def _open(p: Path) -> ifcopenshell.file:
         text = data.decode("latin-1")
     if not data.isascii():
         text, raw = escape_raw_text(data)
-        _LOG.warning("%s: raw non-ASCII characters in %d instances", p, len(raw))
+        _LOG.warning("%s: raw non-ASCII bytes in %d instance(s), read as text", p, len(raw))
     del data
     ifcopenshell.ifcopenshell_wrapper.get_log()  # clears messages of earlier reads
     try:
