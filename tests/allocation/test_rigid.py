@@ -326,10 +326,10 @@ def test_symmetric_plan_without_eccentricity_loads_mirror_walls_equally(
     )  # no torsion, no X-wall force
 
 
-def _story(piers, direction):
+def _story(piers, direction, level="L1"):
     return allocate_rigid_story(
         piers,
-        level="L1",
+        level=level,
         story_shear=1000.0,
         center_of_mass=(5.0, 5.0),
         plan_extent=(0.0, 0.0, 10.0, 10.0),
@@ -380,20 +380,8 @@ def test_each_storys_rigidity_serves_its_other_direction_after_the_other_stories
         for lv in ("L3", "L2", "L1")
     }
 
-    def story(lv, direction):
-        return allocate_rigid_story(
-            stories[lv],
-            level=lv,
-            story_shear=1000.0,
-            center_of_mass=(5.0, 5.0),
-            plan_extent=(0.0, 0.0, 10.0, 10.0),
-            direction=direction,
-            accidental_eccentricity=0.05,
-            amplify_torsion=False,
-        )
-
-    x = {lv: story(lv, X) for lv in stories}
-    y = {lv: story(lv, Y) for lv in stories}
+    x = {lv: _story(stories[lv], X, lv) for lv in stories}
+    y = {lv: _story(stories[lv], Y, lv) for lv in stories}
     assert made == ["L3", "L2", "L1"]  # once per story, not once per direction
     for lv in stories:
         assert x[lv][0].center_of_rigidity == y[lv][0].center_of_rigidity == (5.0, 0.0)
