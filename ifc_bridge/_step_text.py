@@ -32,13 +32,24 @@ class RawText:
         entity: Its STEP instance id (``#id``), or 0 when none precedes them.
         entity_type: Its type as written (``IFCWALL``), or ``""``.
         encoding: How the bytes were read: ``"UTF-8"`` or ``"ISO-8859-1"``.
-        characters: The characters read, in order (for the message).
+        strings: The strings that held them, as read, in order (for the message).
     """
 
     entity: int
     entity_type: str
     encoding: str
-    characters: str
+    strings: tuple[str, ...]
+
+
+def _quoted(data: bytes, start: int, end: int, most: int = 60) -> bytes:
+    """The STEP string around bytes ``start:end`` (between its quotes, on its line),
+    at most ``most`` bytes either side of them."""
+    line = data.rfind(b"\n", 0, start) + 1
+    left = data.rfind(b"'", max(line, start - most), start)
+    right = data.find(b"'", end, end + most)
+    lo = left + 1 if left >= 0 else max(line, start - most)
+    hi = right if right >= 0 else min(len(data), end + most)
+    return data[lo:hi]
 
 
 def _escape(run: str) -> str:
@@ -81,16 +92,18 @@ def escape_raw_text(data: bytes) -> tuple[str, tuple[RawText, ...]]:
     except UnicodeDecodeError:
         text, encoding = data.decode("latin-1"), "ISO-8859-1"
     # the runs of raw bytes, each with the instance it is in
-    found: dict[int, tuple[str, list[str]]] = {}
+    found: dict[int, tuple[str, dict[str, None]]] = {}
     for m in _RAW.finditer(data):
         entity, kind = _owner(data, m.start())
-        found.setdefault(entity, (kind, []))[1].append(m.group().decode(encoding))
+        found.setdefault(entity, (kind, {}))[1].setdefault(
+            _quoted(data, m.start(), m.end()).decode(encoding)
+        )
     raw = tuple(
         RawText(
             entity=entity,
             entity_type=kind,
             encoding=encoding,
-            characters="".join(parts),
+            strings=tuple(parts),
         )
         for entity, (kind, parts) in found.items()
     )
@@ -129,7 +142,7 @@ def raw_text_issue(
             guids.setdefault(guid)
             where += f" {guid}"
         if len(quoted) < shown:
-            quoted.append(f"{where} {r.characters!r}")
+            quoted.append(f"{where} " + ", ".join(repr(t) for t in r.strings))
     more = f" and {len(raw) - shown} more" if len(raw) > shown else ""
     return ImportIssue(
         code="raw_text",
