@@ -17,6 +17,7 @@ parsing again.
 from __future__ import annotations
 
 import logging
+import mmap
 import os
 import re
 import threading
@@ -25,6 +26,7 @@ from pathlib import Path
 
 import ifcopenshell
 import ifcopenshell.ifcopenshell_wrapper
+import numpy as np
 
 from ifc_bridge._step_text import RawText, escape_raw_text
 from ifc_bridge.errors import IfcFileError, IfcSchemaError
@@ -81,6 +83,22 @@ def _check_trailer(path: Path) -> None:
             "copy or export the file again"
         )
         raise IfcFileError(msg)
+
+
+def _has_raw_bytes(path: Path) -> bool:
+    """True when the file holds a byte outside 7-bit ASCII (ISO 10303-21 §6.4.3.2).
+
+    The file is mapped, not read into memory, and scanned by numpy outside the
+    interpreter lock: a 10 MB model costs a few milliseconds and no heap.
+    """
+    with path.open("rb") as fh:
+        if os.fstat(fh.fileno()).st_size == 0:
+            return False
+        with mmap.mmap(fh.fileno(), 0, access=mmap.ACCESS_READ) as mm:
+            view = np.frombuffer(mm, dtype=np.uint8)
+            found = bool(view.max() >= 0x80)
+            del view  # the map closes only once no array looks at it
+    return found
 
 
 _STAMP_RE = re.compile(r"\[\d{4}-\d\d-\d\d [\d:]+\]\s*")
@@ -207,7 +225,8 @@ def _open(p: Path) -> ifcopenshell.file:
     try:
         declared = _header_schema(p)
         _check_trailer(p)
-        data = p.read_bytes()
+        # the whole text is read only when it must be changed before the parse
+        data = p.read_bytes() if declared == "IFC4X3" or _has_raw_bytes(p) else None
     except OSError as exc:
         if isinstance(exc, IfcFileError):
             raise
@@ -223,11 +242,11 @@ def _open(p: Path) -> ifcopenshell.file:
         raise IfcSchemaError(msg)
     raw: tuple[RawText, ...] = ()
     text = None  # the text to parse, when it is not the file as it is
-    if declared == "IFC4X3":
+    if data is not None and declared == "IFC4X3":
         _LOG.info("%s: header schema IFC4X3 read as IFC4X3_ADD2", p)
         data = _PRE_ADD2_RE.sub(rb"\1IFC4X3_ADD2\2", data, count=1)
         text = data.decode("latin-1")
-    if not data.isascii():
+    if data is not None and not data.isascii():
         text, raw = escape_raw_text(data)
         _LOG.warning("%s: raw non-ASCII bytes in %d instance(s), read as text", p, len(raw))
     del data
