@@ -14,9 +14,8 @@ from __future__ import annotations
 
 import logging
 from collections import defaultdict
-from collections.abc import Mapping, Sequence
+from collections.abc import Mapping
 from dataclasses import dataclass
-from operator import attrgetter
 
 from allocation._records import maker
 from allocation.parameters import AssemblyKind
@@ -28,10 +27,6 @@ from checks.rules.asce7_16.load_combinations import combination_clause, seismic_
 from checks.rules.asce7_16.overturning import HoldDown
 from checks.rules.sdpws_2015.aspect_ratio import aspect_factor
 from ifc_bridge.model import BuildingModel
-
-_ASSEMBLY, _HEIGHT, _T, _ID = (
-    attrgetter(n) for n in ("assembly", "height", "thickness", "id")
-)
 
 __all__ = ["PierCheck", "check_unit_shear", "pier_capacity", "pier_checks"]
 
@@ -154,24 +149,6 @@ class _Capacities:
             return None, factor
         return float(base) * factor, factor
 
-    def of_many(
-        self, piers: Sequence[Pier], lengths: Sequence[float]
-    ) -> dict[PierId, tuple[float | None, float]]:
-        """:meth:`of` of every pier, by id; worked out once per distinct assembly,
-        length, height and thickness (the only inputs of :meth:`of`)."""
-        keys = list(
-            zip(
-                map(_ASSEMBLY, piers),
-                lengths,
-                map(_HEIGHT, piers),
-                map(_T, piers),
-                strict=True,
-            )
-        )
-        one = dict(zip(keys, piers, strict=True))  # a pier of each key
-        values = {key: self.of(p, key[1]) for key, p in one.items()}
-        return dict(zip(map(_ID, piers), map(values.__getitem__, keys), strict=True))
-
 
 def pier_capacity(pier: Pier, config: ProjectConfig) -> tuple[float | None, float]:
     """Unit shear capacity of a pier and the aspect factor in it.
@@ -207,8 +184,9 @@ def allocated_capacities(
         held, cfg, table = _LAST_CAPACITIES[0]
         if held is allocation and cfg is config:
             return table
+    caps = _Capacities(config)
     piers, lengths, _ = allocated_piers(allocation)
-    table = _Capacities(config).of_many(piers, lengths)
+    table = {p.id: caps.of(p, n) for p, n in zip(piers, lengths, strict=True)}
     _LAST_CAPACITIES[:] = [(allocation, config, table)]
     return table
 
