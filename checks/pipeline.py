@@ -173,14 +173,13 @@ def check_model(
         AllocationError: The forces cannot be computed.
     """
     clock = _Stopwatch(timings)
-    from ifc_bridge.open_file import open_ifc, open_in_background
+    from ifc_bridge.open_file import open_ifc, open_in_background, parsing
 
     # the parse runs in a thread, outside the interpreter lock, while the reader's
     # modules load (unless the caller began it already), then the later stages'
     # modules until the parse is done
     open_in_background(model_path)
     from ifc_bridge.gc_pause import collection_paused
-    from ifc_bridge.open_file import parsing
     from ifc_bridge.read_model import start_read
     from ifc_bridge.worker import PARALLEL_MIN, can_fork, start_call
 

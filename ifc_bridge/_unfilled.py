@@ -16,7 +16,7 @@ from numpy.typing import NDArray
 
 from ifc_bridge._geometry import Mesh
 from ifc_bridge._openings import opening_points
-from ifc_bridge._relations import OpeningMaps, Relations
+from ifc_bridge._relations import OpeningMaps
 from ifc_bridge.model import ImportIssue, IssueSeverity
 
 __all__ = ["unfilled_inserts", "unfilled_issues"]
@@ -25,16 +25,16 @@ _REACH = 0.1  # [m] beyond the wall faces
 
 
 def unfilled_inserts(
-    ifc: ifcopenshell.file, relations: Relations | OpeningMaps | None = None
+    ifc: ifcopenshell.file, openings: OpeningMaps | None = None
 ) -> list[ifcopenshell.entity_instance]:
     """IfcDoor and IfcWindow entities that fill no opening (no IfcRelFillsElement).
 
-    ``relations``: the file's relations, or only its opening maps, when read.
+    ``openings``: the file's opening maps, when read.
     """
     found = ifc.by_type("IfcDoor") + ifc.by_type("IfcWindow")
-    if relations is None:
+    if openings is None:
         return [e for e in found if not (getattr(e, "FillsVoids", None) or ())]
-    filling = {e.id() for group in relations.fills.values() for e in group}
+    filling = {e.id() for group in openings.fills.values() for e in group}
     return [e for e in found if e.id() not in filling]
 
 

@@ -49,16 +49,16 @@ Progress = Callable[[str, int, int], None]
 def _others(
     ifc: ifcopenshell.file,
     walls: Sequence[ifcopenshell.entity_instance],
-    relations: Relations | OpeningMaps,
+    openings: OpeningMaps,
     inserts: Sequence[ifcopenshell.entity_instance],
 ) -> list:
     """What the kernel meshes besides walls: slabs, openings, unfilled inserts."""
     slabs = ifc.by_type("IfcSlab")
     roofs = ifc.by_type("IfcRoof")
-    openings = []
+    voids = []
     for host in (*walls, *slabs, *roofs):
-        openings.extend(relations.voids.get(host.id(), ()))
-    return [*slabs, *openings, *inserts]
+        voids.extend(openings.voids.get(host.id(), ()))
+    return [*slabs, *voids, *inserts]
 
 
 def _project(ifc: ifcopenshell.file) -> tuple[str, str]:
