@@ -59,15 +59,18 @@ def _first_under(
     lines: Sequence[ResistanceLine],
     direction: Direction,
     tolerance: float,
+    ends: np.ndarray | None = None,
 ) -> list[ResistanceLine | None]:
     """Per pier, the first of ``lines`` it :func:`stands_on`, or None (all at once).
 
-    The same float comparisons as :func:`stands_on`, on arrays: piers by lines.
+    The same float comparisons as :func:`stands_on`, on arrays: piers by lines;
+    ``ends`` the piers' end points when the caller has them.
     """
     if not piers or not lines:
         return [None] * len(piers)
     k, j = (1, 0) if direction is Direction.X else (0, 1)
-    ends = end_points(piers)
+    if ends is None:
+        ends = end_points(piers)
     across = (ends[:, 0, k] + ends[:, 1, k]) / 2.0  # perpendicular(pier.midpoint)
     a = np.minimum(ends[:, 0, j], ends[:, 1, j])  # sorted along-line ends
     b = np.maximum(ends[:, 0, j], ends[:, 1, j])
@@ -112,7 +115,8 @@ def split_transfers(
         if ln.direction is direction and ln.level == level_below
     ]
     mine = [p for p in upper_piers if p.direction is direction]
-    under = _first_under(mine, lines, direction, tolerance)
+    ends = end_points(mine) if mine else None
+    under = _first_under(mine, lines, direction, tolerance, ends)
     loads, conditions = [], []
     for p, line in zip(mine, under, strict=True):
         if not p.line or line is not None:
@@ -134,16 +138,22 @@ def split_transfers(
         conditions.append(_non_stacking(p, force, level_below))
     moved = {pl.source_pier for pl in loads}
     stacking = []
-    for p, line in zip(mine, under, strict=True):
-        if line is None or p.id not in upper_pier_forces or p.id in moved:
+    if ends is None:
+        return tuple(loads), tuple(conditions), ()
+    # Pier.midpoint of each, on the end points' array (the same floats)
+    middle = ((ends[:, 0] + ends[:, 1]) / 2.0).tolist()
+    for p, line, mid in zip(mine, under, middle, strict=True):
+        if line is None or p.id in moved:
             continue
-        force = upper_pier_forces[p.id]
+        force = upper_pier_forces.get(p.id)
+        if force is None:
+            continue
         stacking.append(
             _point_load(
                 level=level_below,
                 direction=direction,
                 source_pier=p.id,
-                location=p.midpoint,
+                location=tuple(mid),
                 force=force,
                 shares=((line.id, force),),
             )

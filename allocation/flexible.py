@@ -358,6 +358,13 @@ def allocate_flexible(
             line_forces[lid] += f
     routed = []
     for pl in point_loads:
+        shares = pl.shares
+        if len(shares) == 1:  # a stacked wall: _route_point keeps it as it is
+            lid, f = shares[0]
+            if f == pl.force and lid in ids:
+                routed.append(pl)
+                line_forces[lid] += f
+                continue
         done, cond = _route_point(pl, slots, ids, direction)
         routed.append(done)
         conditions.extend(cond)
