@@ -12,12 +12,13 @@ flexible method.
 
 from __future__ import annotations
 
-from collections.abc import Iterable, Sequence
+from collections.abc import Iterable, Mapping, Sequence
 from itertools import chain, repeat
 
 import numpy as np
 
 from allocation._columns import flags, floats
+from allocation._pier_forces import PierForces
 from allocation._records import records
 from allocation.parameters import DiaphragmMethod
 from allocation.results import (
@@ -35,7 +36,7 @@ __all__ = ["envelope", "line_envelope"]
 _Peak = tuple[float, str]  # (largest magnitude [N], case label)
 
 
-def _peaks(items: Iterable[tuple[str, dict[str, float]]]) -> dict[str, _Peak]:
+def _peaks(items: Iterable[tuple[str, Mapping[str, float]]]) -> dict[str, _Peak]:
     """Largest |force| per key over labelled force maps; the first label wins ties."""
     out: dict[str, _Peak] = {}
     for label, forces in items:
@@ -47,29 +48,45 @@ def _peaks(items: Iterable[tuple[str, dict[str, float]]]) -> dict[str, _Peak]:
 
 
 def _matrix(
-    items: Sequence[tuple[str, dict[str, float]]], rows: list[int], width: int
+    items: Sequence[tuple[str, Mapping[str, float]]], rows: list[int], width: int
 ) -> np.ndarray:
-    """The maps' values of the given items as rows of a float matrix."""
-    values = chain.from_iterable(items[n][1].values() for n in rows)
+    """The maps' values of the given items (maps with one key sequence) as rows of a
+    float matrix; a rigid story's maps give their arrays as they are."""
+    maps = [items[n][1] for n in rows]
+    if all(isinstance(f, PierForces) for f in maps):
+        return np.stack([f.array for f in maps])  # each aligned with its index.ids
+    values = chain.from_iterable(f.values() for f in maps)
     return np.fromiter(values, dtype=np.float64, count=len(rows) * width).reshape(
         len(rows), width
     )
 
 
-def _same_keys(
-    items: Sequence[tuple[str, dict[str, float]]],
-) -> list[tuple[tuple[str, ...], list[int]]] | None:
-    """Items grouped by their maps' key sequence, or None when groups share keys."""
+def _key_groups(
+    items: Sequence[tuple[str, Mapping[str, float]]],
+) -> dict[tuple[str, ...], list[int]]:
+    """Each key sequence of the items' maps, with the items that have it, in order
+    (a rigid story's maps share their index's ids: not read key by key)."""
     groups: dict[tuple[str, ...], list[int]] = {}
     for n, (_, forces) in enumerate(items):
-        groups.setdefault(tuple(forces), []).append(n)
+        keys = forces.index.ids if isinstance(forces, PierForces) else tuple(forces)
+        groups.setdefault(keys, []).append(n)
+    return groups
+
+
+def _same_keys(
+    items: Sequence[tuple[str, Mapping[str, float]]],
+) -> list[tuple[tuple[str, ...], list[int]]] | None:
+    """Items grouped by their maps' key sequence, or None when groups share keys."""
+    groups = _key_groups(items)
     keys = [k for k in groups]
     if sum(len(k) for k in keys) != len({p for k in keys for p in k}):
         return None
     return list(groups.items())
 
 
-def _peaks_by_rows(items: Sequence[tuple[str, dict[str, float]]]) -> dict[str, _Peak]:
+def _peaks_by_rows(
+    items: Sequence[tuple[str, Mapping[str, float]]],
+) -> dict[str, _Peak]:
     """:func:`_peaks` of maps that come in groups with one key sequence (the rigid
     cases of a story): each group as a matrix, the first largest row per column."""
     groups = _same_keys(items)
@@ -101,7 +118,7 @@ class _LineSums:
             for p in piers:
                 self.index.setdefault(p, []).append(lid)
 
-    def __call__(self, forces: dict[PierId, float]) -> dict[LineId, float]:
+    def __call__(self, forces: Mapping[PierId, float]) -> dict[LineId, float]:
         """Each line with any pier in ``forces``: the sum over its piers, in order [N]."""
         hit = {lid for p in forces for lid in self.index.get(p, ())}
         return {
@@ -110,15 +127,12 @@ class _LineSums:
         }
 
     def many(
-        self, items: Sequence[tuple[str, dict[PierId, float]]]
+        self, items: Sequence[tuple[str, Mapping[PierId, float]]]
     ) -> list[tuple[str, dict[LineId, float]]]:
         """``(label, self(forces))`` of each item; maps with one key sequence (the
         rigid cases of a story) as a matrix, each line's piers added in order."""
         out: list[tuple[str, dict[LineId, float]] | None] = [None] * len(items)
-        groups: dict[tuple[str, ...], list[int]] = {}
-        for n, (_, forces) in enumerate(items):
-            groups.setdefault(tuple(forces), []).append(n)
-        for keys, rows in groups.items():
+        for keys, rows in _key_groups(items).items():
             col = {p: k for k, p in enumerate(keys)}
             hit = sorted(
                 {lid for p in keys for lid in self.index.get(p, ())},

@@ -301,8 +301,10 @@ class RigidResult:
         Ax: Torsional amplification factor, Eq. 12.8-14 [-].
         torsion: Torsional moment about the CR, CCW positive [N·m].
         J: Torsional stiffness about the CR [N·m] (in stiffness units × m²).
-        pier_forces: Signed in-plane shear per pier [N] (direct + torsional).
-        pier_direct: Direct part per pier [N].
+        pier_forces: Signed in-plane shear per pier [N] (direct + torsional); a
+            read-only map (the allocation gives a ``PierForces`` over the story's
+            array).
+        pier_direct: Direct part per pier [N], likewise.
         drift_ratio_max: Max/avg displacement ratio at the plan extremes [-]
             (Table 12.3-1), computed with Ax = 1.
         conditions: Conditions found.
@@ -318,8 +320,8 @@ class RigidResult:
     Ax: float
     torsion: float
     J: float
-    pier_forces: dict[PierId, float]
-    pier_direct: dict[PierId, float]
+    pier_forces: Mapping[PierId, float]
+    pier_direct: Mapping[PierId, float]
     drift_ratio_max: float = 1.0
     conditions: tuple[Condition, ...] = ()
     method: Method = Method.RIGID

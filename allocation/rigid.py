@@ -34,6 +34,7 @@ from numpy.typing import NDArray
 from allocation._columns import ends as end_points
 from allocation._columns import flags, floats
 from allocation._memo import float_bytes
+from allocation._pier_forces import PierForces, PierIndex
 from allocation._rigid_inputs import validate as _validate
 from allocation.asce7_16 import s12_8_torsion
 from allocation.errors import ParameterError
@@ -62,7 +63,7 @@ class _Rigidity:
     """Stiffness layout of one story: arrays over its X and Y piers."""
 
     piers: tuple[Pier, ...]
-    ids: tuple[str, ...]  # their ids
+    index: PierIndex  # the piers' ids, the rows of the arrays; shared by the cases
     kx: NDArray[np.float64]  # stiffness of X piers, 0 for Y piers
     ky: NDArray[np.float64]
     x: NDArray[np.float64]  # mid-points [m]
@@ -134,7 +135,7 @@ def _rigidity(
     k_all = float(kx_sum + ky_sum)
     return _Rigidity(
         piers=active,
-        ids=tuple(map(_ID, active)),
+        index=PierIndex(map(_ID, active)),
         kx=kx,
         ky=ky,
         x=x,
@@ -333,7 +334,6 @@ def _allocate(
     direct = k_d / k_sum * F if k_sum > 0 else np.zeros_like(k_d)
     theta, conditions = _theta(rig, level=level, d=d, T=T, story_shear=story_shear)
     total = direct + theta * (rig.kx * -(rig.y - rig.ycr) + rig.ky * (rig.x - rig.xcr))
-    ids = rig.ids
     return RigidResult(
         level=level,
         case=case,
@@ -345,8 +345,8 @@ def _allocate(
         Ax=float(Ax),
         torsion=float(T),
         J=rig.J,
-        pier_forces=dict(zip(ids, total.tolist(), strict=True)),
-        pier_direct=dict(zip(ids, direct.tolist(), strict=True)),
+        pier_forces=PierForces(rig.index, total),
+        pier_direct=PierForces(rig.index, direct),
         drift_ratio_max=_drift_ratio(
             rig, direction=d, load_offset=cm + acc1, plan_extent=plan_extent
         ),
