@@ -243,10 +243,11 @@ def load_masses(
     )
     for slot, (w, mu, mv) in zip(slots, done.acc, strict=True):
         slot.weight, slot.moment_u, slot.moment_v = w, mu, mv
-    for pu, pv, j in done.off:
-        logger.debug(
-            "point (%s, %s) off the diaphragm: placed on %s", pu, pv, slots[j].id
-        )
+    if done.off and logger.isEnabledFor(logging.DEBUG):
+        for pu, pv, j in done.off:
+            logger.debug(
+                "point (%s, %s) off the diaphragm: placed on %s", pu, pv, slots[j].id
+            )
     ids = list(names)
     ids += [slots[j].piece.supports[k].line for j, k in done.supports]
     return {ids[c]: w for c, w in done.direct}, done.lost

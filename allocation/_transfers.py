@@ -12,7 +12,7 @@ import numpy as np
 
 from allocation._columns import ends as end_points
 from allocation._columns import points
-from allocation._records import maker
+from allocation._records import records
 from allocation.errors import AllocationError
 from allocation.lines import along, perpendicular
 from allocation.results import (
@@ -26,8 +26,6 @@ from allocation.results import (
 from ifc_bridge.model import Direction
 
 __all__ = ["split_transfers", "stands_on", "transfer_point_loads"]
-
-_point_load = maker(PointLoad)  # PointLoad(...), faster for the many stacked walls
 
 
 def stands_on(pier: Pier, line: ResistanceLine, *, tolerance: float) -> bool:
@@ -137,27 +135,30 @@ def split_transfers(
         )
         conditions.append(_non_stacking(p, force, level_below))
     moved = {pl.source_pier for pl in loads}
-    stacking = []
     if ends is None:
         return tuple(loads), tuple(conditions), ()
     # Pier.midpoint of each, on the end points' array (the same floats)
     middle = ((ends[:, 0] + ends[:, 1]) / 2.0).tolist()
+    ids, at, forces, shares = [], [], [], []
     for p, line, mid in zip(mine, under, middle, strict=True):
         if line is None or p.id in moved:
             continue
         force = upper_pier_forces.get(p.id)
         if force is None:
             continue
-        stacking.append(
-            _point_load(
-                level=level_below,
-                direction=direction,
-                source_pier=p.id,
-                location=tuple(mid),
-                force=force,
-                shares=((line.id, force),),
-            )
-        )
+        ids.append(p.id)
+        at.append(tuple(mid))
+        forces.append(force)
+        shares.append(((line.id, force),))
+    stacking = records(
+        PointLoad,
+        level=[level_below] * len(ids),
+        direction=[direction] * len(ids),
+        source_pier=ids,
+        location=at,
+        force=forces,
+        shares=shares,
+    )
     return tuple(loads), tuple(conditions), tuple(stacking)
 
 

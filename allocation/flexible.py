@@ -110,7 +110,7 @@ def _finish_piece(
     scale: float,
     level: str,
     direction: Direction,
-    line_guids: dict[LineId, tuple[str, ...]],
+    lines: dict[LineId, ResistanceLine],
     tol: float,
 ) -> tuple[DiaphragmPiece, list[Condition]]:
     if slot.weight > 0.0:
@@ -158,7 +158,8 @@ def _finish_piece(
             f"diaphragm piece {slot.id} cantilevers from line {line} alone "
             f"(force {force:.0f} N in {direction.value})"
         )
-        guids = (*slabs, *line_guids.get(line, ()))
+        walls = lines[line].piers if line in lines else ()
+        guids = (*slabs, *(pid.split("|", 1)[0] for pid in walls))  # pier_id()
         return piece, [
             _cond(
                 ConditionKind.CANTILEVER_PIECE,
@@ -346,10 +347,10 @@ def allocate_flexible(
     line_forces = {ln.id: 0.0 for ln in mine}
     for lid, w in direct.items():
         line_forces[lid] += scale * w
-    guids = {ln.id: tuple(p.split("|", 1)[0] for p in ln.piers) for ln in mine}
+    by_id = {ln.id: ln for ln in mine}
     pieces, conditions = [], []
     for slot in slots:
-        piece, cond = _finish_piece(slot, scale, name, direction, guids, tol)
+        piece, cond = _finish_piece(slot, scale, name, direction, by_id, tol)
         if not physical:  # weights were plan areas
             piece = dataclasses.replace(piece, weight=0.0)
         pieces.append(piece)

@@ -66,8 +66,6 @@ def along(point: tuple[float, float], direction: Direction) -> float:
 _Placed = tuple[Pier, float, float, float, float, float, float]
 
 
-
-
 def _placed(piers: Sequence[Pier], direction: Direction) -> list[_Placed]:
     """Each pier as the grouping sees it, worked out on arrays (the same floats)."""
     if not piers:
