@@ -99,6 +99,15 @@ def _add_level(g: LoadPathRecord, r: FlexibleResult, piers: dict[PierId, Pier]) 
         for lid, f in pl.shares:
             g.add_edge(node, f"line:{lid}", force=f, share=share(f, pl.force))
             into[lid] += f
+    stacked = r.stacked
+    for pid, lid, f in zip(
+        stacked.source_piers, stacked.lines, stacked.forces, strict=True
+    ):
+        node = f"transfer:{pid}"  # straight to the line it stands on
+        g.add_node(node, kind="transfer", level=r.level, force=f, source_pier=pid)
+        g.add_edge(f"pier:{pid}", node, force=f)
+        g.add_edge(node, f"line:{lid}", force=f, share=share(f, f))
+        into[lid] += f
     for lid, force in r.line_forces.items():
         g.add_node(f"line:{lid}", kind="line", level=r.level, force=force)
         direct = force - into[lid]

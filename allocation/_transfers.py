@@ -12,7 +12,6 @@ import numpy as np
 
 from allocation._columns import ends as end_points
 from allocation._columns import points
-from allocation._records import records
 from allocation.errors import AllocationError
 from allocation.lines import along, perpendicular
 from allocation.results import (
@@ -22,6 +21,7 @@ from allocation.results import (
     PierId,
     PointLoad,
     ResistanceLine,
+    StackedShear,
 )
 from ifc_bridge.model import Direction
 
@@ -92,17 +92,17 @@ def split_transfers(
     level_below: str,
     direction: Direction,
     tolerance: float,
-) -> tuple[tuple[PointLoad, ...], tuple[Condition, ...], tuple[PointLoad, ...]]:
-    """:func:`transfer_point_loads`, plus the loads of the piers that do stack.
+) -> tuple[tuple[PointLoad, ...], tuple[Condition, ...], StackedShear]:
+    """:func:`transfer_point_loads`, plus the shear of the piers that do stack.
 
     Common practice: a stacking pier's shear goes straight into the first line below
-    that it stands on (:func:`stands_on`), as a point load with that one share.
+    that it stands on (:func:`stands_on`).
 
     Returns:
         The non-stacking point loads and their conditions, as
-        :func:`transfer_point_loads`; then one load per other upper pier of
-        ``direction`` with a force in ``upper_pier_forces`` that stands on a line
-        (``shares`` that line and the whole force), in upper pier order.
+        :func:`transfer_point_loads`; then the stacked shear: each other upper pier
+        of ``direction`` with a force in ``upper_pier_forces`` that stands on a
+        line, with that line and its whole force, in upper pier order.
 
     Raises:
         AllocationError: A non-stacking pier in a line has no force given.
@@ -136,10 +136,10 @@ def split_transfers(
         conditions.append(_non_stacking(p, force, level_below))
     moved = {pl.source_pier for pl in loads}
     if ends is None:
-        return tuple(loads), tuple(conditions), ()
+        return tuple(loads), tuple(conditions), StackedShear()
     # Pier.midpoint of each, on the end points' array (the same floats)
     middle = ((ends[:, 0] + ends[:, 1]) / 2.0).tolist()
-    ids, at, forces, shares = [], [], [], []
+    ids, on, forces, at = [], [], [], []
     for p, line, mid in zip(mine, under, middle, strict=True):
         if line is None or p.id in moved:
             continue
@@ -147,19 +147,16 @@ def split_transfers(
         if force is None:
             continue
         ids.append(p.id)
-        at.append(tuple(mid))
+        on.append(line.id)
         forces.append(force)
-        shares.append(((line.id, force),))
-    stacking = records(
-        PointLoad,
-        level=[level_below] * len(ids),
-        direction=[direction] * len(ids),
-        source_pier=ids,
-        location=at,
-        force=forces,
-        shares=shares,
+        at.append(tuple(mid))
+    stacked = StackedShear(
+        source_piers=tuple(ids),
+        lines=tuple(on),
+        forces=tuple(forces),
+        locations=tuple(at),
     )
-    return tuple(loads), tuple(conditions), tuple(stacking)
+    return tuple(loads), tuple(conditions), stacked
 
 
 def transfer_point_loads(

@@ -32,6 +32,7 @@ from allocation.results import (
     PointLoad,
     ResistanceLine,
     RigidResult,
+    StackedShear,
 )
 from allocation.rigid import allocate_rigid_story
 from allocation.stiffness import stiffness_values
@@ -183,9 +184,10 @@ def _allocate(
             lv = levels[i]
             lines = lines_by_level[lv.level]
             own = piers_by_level[lv.level]
-            transfers: tuple[PointLoad, ...] = ()
+            moving: tuple[PointLoad, ...] = ()
+            stacked = StackedShear()
             if upper_result is not None and upper_level is not None:
-                moving, found, stacking = split_transfers(
+                moving, found, stacked = split_transfers(
                     piers_by_level[upper_level],
                     upper_result.pier_forces,
                     lines,
@@ -193,7 +195,6 @@ def _allocate(
                     direction=direction,
                     tolerance=options.line_tolerance,
                 )
-                transfers = moving + stacking
                 conditions.extend(found)
             result = allocate_flexible(
                 lv,
@@ -201,7 +202,8 @@ def _allocate(
                 lines,
                 own,
                 direction=direction,
-                point_loads=transfers,
+                point_loads=moving,
+                stacked=stacked,
                 line_tolerance=options.line_tolerance,
             )
             flexible.append(result)

@@ -45,6 +45,7 @@ from allocation.results import (
     Pier,
     PointLoad,
     ResistanceLine,
+    StackedShear,
 )
 from allocation.within_line import choose_basis, distribute_in_line
 from ifc_bridge.model import Diaphragm, Direction
@@ -195,25 +196,9 @@ def _cond(
 
 
 def _route_point(
-    pl: PointLoad,
-    slots: Sequence[Slot],
-    line_ids: set[LineId],
-    direction: Direction,
+    pl: PointLoad, slots: Sequence[Slot], direction: Direction
 ) -> tuple[PointLoad, list[Condition]]:
-    if pl.shares:
-        if len(pl.shares) == 1:  # a stacked wall: fsum of one share is the share
-            unknown = [] if pl.shares[0][0] in line_ids else [pl.shares[0][0]]
-            total = pl.shares[0][1]
-        else:
-            unknown = [lid for lid, _ in pl.shares if lid not in line_ids]
-            total = math.fsum(f for _, f in pl.shares)
-        if unknown or not math.isclose(total, pl.force, rel_tol=1e-9, abs_tol=1e-9):
-            msg = (
-                f"point load from pier {pl.source_pier}: shares {pl.shares} do not "
-                f"fit lines of level {pl.level!r} or force {pl.force} N"
-            )
-            raise AllocationError(msg)
-        return pl, []
+    """The point load with its lines' shares, by its location, and its conditions."""
     guid = pl.source_pier.split("|", 1)[0]
     u, v = local_uv(pl.location, direction)
     line = on_line(u, v, slots)
@@ -224,7 +209,7 @@ def _route_point(
             f"shear {pl.force:.0f} N from pier {pl.source_pier} enters level "
             f"{pl.level!r}, which has no diaphragm region"
         )
-        return pl, [
+        return _with(pl, ()), [
             _cond(
                 ConditionKind.UNSUPPORTED_PIECE,
                 pl.level,
@@ -296,6 +281,7 @@ def allocate_flexible(
     *,
     direction: Direction,
     point_loads: Sequence[PointLoad] = (),
+    stacked: StackedShear | None = None,
     line_tolerance: float | None = None,
 ) -> FlexibleResult:
     """Allocate a level's story force to its lines and piers, flexible diaphragm.
@@ -312,8 +298,10 @@ def allocate_flexible(
         lines: Lines of resistance (those of this level and direction are used).
         piers: Piers with ``line`` set (those of the lines are used).
         direction: Direction of the force.
-        point_loads: Shear from walls above entering this level [N]; loads with
-            ``shares`` already given (stacked walls) go to those lines unchanged.
+        point_loads: Shear from walls above entering this level [N], each split by
+            its location (any ``shares`` given are replaced).
+        stacked: Shear of the walls above that stand on lines of this level [N],
+            added to those lines (after the point loads); None: none.
         line_tolerance: As ``AnalysisOptions.line_tolerance`` [m] (default 0.5).
 
     Returns:
@@ -321,8 +309,9 @@ def allocate_flexible(
         (cantilevered and unsupported pieces; unsupported force is not allocated).
 
     Raises:
-        AllocationError: A point load for another level or direction, preset point
-            load shares that do not fit, or a line whose piers are not given.
+        AllocationError: A point load for another level or direction, stacked
+            shear on a line not of this level and direction, or a line whose piers
+            are not given.
     """
     tol = AnalysisOptions().line_tolerance if line_tolerance is None else line_tolerance
     name = level.level
@@ -359,18 +348,23 @@ def allocate_flexible(
             line_forces[lid] += f
     routed = []
     for pl in point_loads:
-        shares = pl.shares
-        if len(shares) == 1:  # a stacked wall: _route_point keeps it as it is
-            lid, f = shares[0]
-            if f == pl.force and lid in ids:
-                routed.append(pl)
-                line_forces[lid] += f
-                continue
-        done, cond = _route_point(pl, slots, ids, direction)
+        done, cond = _route_point(pl, slots, direction)
         routed.append(done)
         conditions.extend(cond)
         for lid, f in done.shares:
             line_forces[lid] += f
+    if stacked is None:
+        stacked = StackedShear()
+    for pid, lid, f in zip(
+        stacked.source_piers, stacked.lines, stacked.forces, strict=True
+    ):
+        if lid not in ids:
+            msg = (
+                f"stacked shear of pier {pid}: line {lid} is not a line of level "
+                f"{name!r} in {direction.value}"
+            )
+            raise AllocationError(msg)
+        line_forces[lid] += f
     if W <= 0.0 and Fx != 0.0:
         lost, scale = 1.0, Fx  # all of Fx
     if lost > 0.0:
@@ -392,10 +386,17 @@ def allocate_flexible(
     return FlexibleResult(
         level=name,
         direction=direction,
-        applied=float(Fx + math.fsum(pl.force for pl in point_loads)),
+        applied=float(Fx + math.fsum(_transferred(point_loads, stacked))),
         pieces=tuple(pieces),
         point_loads=tuple(routed),
         line_forces={k: float(v) for k, v in line_forces.items()},
         pier_forces=_pier_forces(mine, piers, line_forces),
         conditions=tuple(conditions),
+        stacked=stacked,
     )
+
+
+def _transferred(point_loads: Sequence[PointLoad], stacked: StackedShear):
+    """The forces from the story above: point loads, then stacked shear [N]."""
+    yield from (pl.force for pl in point_loads)
+    yield from stacked.forces

@@ -39,6 +39,7 @@ __all__ = [
     "ResistanceLine",
     "RigidResult",
     "SeismicSummary",
+    "StackedShear",
     "WeightItem",
 ]
 
@@ -238,6 +239,44 @@ class PointLoad:
 
 
 @dataclass(frozen=True, slots=True, kw_only=True)
+class StackedShear:
+    """Shear of the walls above that stand on a line of the level, column-wise.
+
+    Common practice (DESIGN.md item 10): a wall standing on a line of the story
+    below delivers its shear straight to that line; the diaphragm does not carry it.
+    One entry per such pier, in upper pier order.
+
+    Attributes:
+        source_piers: The piers above.
+        lines: The line of this level each stands on.
+        forces: Each pier's force [N], positive in the +direction.
+        locations: Each pier's plan mid-point (x, y) [m].
+
+    Raises:
+        ValueError: The columns differ in length.
+    """
+
+    source_piers: tuple[PierId, ...] = ()
+    lines: tuple[LineId, ...] = ()
+    forces: tuple[float, ...] = ()
+    locations: tuple[tuple[float, float], ...] = ()
+
+    def __post_init__(self) -> None:
+        sizes = {
+            len(self.source_piers),
+            len(self.lines),
+            len(self.forces),
+            len(self.locations),
+        }
+        if len(sizes) > 1:
+            msg = f"stacked shear: columns of different lengths {sorted(sizes)}"
+            raise ValueError(msg)
+
+    def __len__(self) -> int:
+        return len(self.source_piers)
+
+
+@dataclass(frozen=True, slots=True, kw_only=True)
 class FlexibleResult:
     """Flexible-diaphragm allocation of one level and direction.
 
@@ -246,10 +285,12 @@ class FlexibleResult:
         direction: Direction of force.
         applied: Level force allocated (Fx plus transfers entering here) [N].
         pieces: Diaphragm pieces with their shares.
-        point_loads: Transfers from non-stacking walls above.
+        point_loads: Transfers from non-stacking walls above (into the diaphragm).
         line_forces: Force per line [N].
         pier_forces: Force per pier [N].
         conditions: Cantilevered / unsupported pieces and other conditions.
+        stacked: Shear of the walls above that stand on a line of this level,
+            added to that line's force.
     """
 
     level: str
@@ -261,6 +302,7 @@ class FlexibleResult:
     pier_forces: dict[PierId, float]
     conditions: tuple[Condition, ...] = ()
     method: Method = Method.FLEXIBLE
+    stacked: StackedShear = StackedShear()
 
 
 @dataclass(frozen=True, slots=True, kw_only=True)

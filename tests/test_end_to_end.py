@@ -185,12 +185,26 @@ def test_demo_command_runs(tmp_path):
 
 def test_closed_topic_quotes_the_revised_numbers(out_dir, tmp_path):
     out2 = tmp_path / "rev2"
-    main(["check", str(IFC_REV2), "--config", str(CONFIG), "--out", str(out2),
-          "--previous", str(out_dir / "findings.bcf"), "-q"])
+    main(
+        [
+            "check",
+            str(IFC_REV2),
+            "--config",
+            str(CONFIG),
+            "--out",
+            str(out2),
+            "--previous",
+            str(out_dir / "findings.bcf"),
+            "-q",
+        ]
+    )
     from checks.report.bcf_read import read_topics
 
-    closed = [t for t in read_topics(out2 / "findings.bcf").topics
-              if t.status == "Closed" and "over capacity" in t.title]
+    closed = [
+        t
+        for t in read_topics(out2 / "findings.bcf").topics
+        if t.status == "Closed" and "over capacity" in t.title
+    ]
     assert closed, "revision 2 lengthens the overstressed wall"  # sample_models/README
     assert "Now: wall 'L2-C1' DCR" in closed[0].comments[-1].text
 

@@ -6,7 +6,7 @@ records directly (no IFC): wall segments, diaphragms, piers and level loads.
 
 from __future__ import annotations
 
-from collections.abc import Sequence
+from collections.abc import Callable, Sequence
 
 from shapely.geometry import Polygon
 
@@ -21,6 +21,7 @@ from allocation.results import (
     Pier,
     PointLoad,
     ResistanceLine,
+    StackedShear,
 )
 from ifc_bridge.model import (
     BuildingModel,
@@ -210,11 +211,19 @@ def run_flexible(
     direction: Direction = Direction.X,
     extra: Sequence[MassItem] = (),
     point_loads: Sequence[PointLoad] = (),
+    stacked: Callable[[Sequence[ResistanceLine]], StackedShear] | None = None,
 ) -> tuple[tuple[ResistanceLine, ...], tuple[Pier, ...], FlexibleResult]:
-    """Lines, piers and the flexible result of one level with 1 kPa slabs."""
+    """Lines, piers and the flexible result of one level with 1 kPa slabs;
+    ``stacked`` makes the stacked shear from the level's lines."""
     lines, piers = lines_of(walls, regions)
     load = slab_load(regions, Fx=Fx, extra=extra)
     result = allocate_flexible(
-        load, regions, lines, piers, direction=direction, point_loads=point_loads
+        load,
+        regions,
+        lines,
+        piers,
+        direction=direction,
+        point_loads=point_loads,
+        stacked=None if stacked is None else stacked(lines),
     )
     return lines, piers, result

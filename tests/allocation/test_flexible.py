@@ -16,8 +16,9 @@ import pytest
 from shapely.geometry import Polygon, box
 
 from allocation._pieces import Support
+from allocation.errors import AllocationError
 from allocation.flexible import allocate_flexible, lever_rule, transfer_point_loads
-from allocation.results import ConditionKind, MassItem
+from allocation.results import ConditionKind, MassItem, StackedShear
 from ifc_bridge.model import Direction
 from tests.allocation._plans import (
     by_offset,
@@ -414,3 +415,20 @@ def test_force_with_no_diaphragm_is_reported_not_allocated():
     assert set(r.line_forces.values()) == {0.0}
     (c,) = r.conditions
     assert (c.kind, c.value) == (ConditionKind.UNSUPPORTED_PIECE, 100.0)
+
+
+def test_stacked_shear_columns_must_match():
+    with pytest.raises(ValueError, match="columns of different lengths"):
+        StackedShear(source_piers=("A|L2|0|0",), lines=(), forces=(1.0,), locations=())
+
+
+def test_stacked_shear_on_a_line_of_another_level_is_an_error():
+    walls = [x_wall("S", 0.0, 0.0, 10.0), x_wall("N", 10.0, 0.0, 10.0)]
+    stacked = StackedShear(
+        source_piers=("U|L2|0|0",),
+        lines=("L9-X-1",),
+        forces=(100.0,),
+        locations=((5.0, 0.0),),
+    )
+    with pytest.raises(AllocationError, match="line L9-X-1 is not a line of level"):
+        run_flexible(walls, [diaphragm(box(0, 0, 10, 10))], stacked=lambda _: stacked)

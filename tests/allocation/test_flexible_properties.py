@@ -16,7 +16,7 @@ from hypothesis import strategies as st
 from shapely.affinity import affine_transform
 from shapely.geometry import box
 
-from allocation.results import MassItem, PointLoad
+from allocation.results import MassItem, PointLoad, StackedShear
 from ifc_bridge.model import Direction
 from tests.allocation._plans import (
     by_offset,
@@ -68,9 +68,29 @@ plans = st.tuples(
 FAST = settings(max_examples=25, derandomize=True, deadline=None)
 
 
+def _stacked_on_every_x_line(S: float):
+    """S [N] from a wall above standing on each X line of the level."""
+
+    def make(lines):
+        xs = [ln for ln in lines if ln.direction is X]
+        return StackedShear(
+            source_piers=tuple(f"S{n}|L2|0|0" for n in range(len(xs))),
+            lines=tuple(ln.id for ln in xs),
+            forces=(S,) * len(xs),
+            locations=tuple((0.0, ln.offset) for ln in xs),
+        )
+
+    return make
+
+
 @FAST
-@given(plan=plans, Fx=st.floats(1.0, 1e6), P=st.floats(0.0, 1e5))
-def test_line_forces_add_up_to_level_force_and_point_loads(plan, Fx, P):  # statics
+@given(
+    plan=plans,
+    Fx=st.floats(1.0, 1e6),
+    P=st.floats(0.0, 1e5),
+    S=st.floats(-1e5, 1e5),
+)
+def test_line_forces_add_up_to_level_force_and_transfers(plan, Fx, P, S):  # statics
     W, H, fracs, point = plan
     walls, region, extra = _plan(W, H, fracs, point)
     pl = PointLoad(
@@ -81,9 +101,21 @@ def test_line_forces_add_up_to_level_force_and_point_loads(plan, Fx, P):  # stat
         force=P,
         shares=(),
     )
-    _lines, _, r = run_flexible(walls, [region], Fx=Fx, extra=extra, point_loads=[pl])
-    assert math.fsum(r.line_forces.values()) == pytest.approx(Fx + P, rel=1e-9)
-    assert math.fsum(r.pier_forces.values()) == pytest.approx(Fx + P, rel=1e-9)
+    _, _, r = run_flexible(
+        walls,
+        [region],
+        Fx=Fx,
+        extra=extra,
+        point_loads=[pl],
+        stacked=_stacked_on_every_x_line(S),
+    )
+    total = Fx + P + S * len(r.stacked)
+    assert r.applied == pytest.approx(total, rel=1e-9, abs=1e-6)
+    assert math.fsum(r.line_forces.values()) == pytest.approx(total, rel=1e-9, abs=1e-6)
+    assert math.fsum(r.pier_forces.values()) == pytest.approx(total, rel=1e-9, abs=1e-6)
+    alone = run_flexible(walls, [region], Fx=Fx, extra=extra, point_loads=[pl])[2]
+    for lid, f in alone.line_forces.items():  # a stacked wall loads its line only
+        assert r.line_forces[lid] == pytest.approx(f + S, rel=1e-9, abs=1e-6)
     assert sum(p.polygon.area for p in r.pieces) == pytest.approx(W * H, rel=1e-9)
 
 

@@ -18,10 +18,10 @@ import networkx as nx
 import pytest
 from shapely.geometry import box
 
+from allocation._transfers import split_transfers
 from allocation.errors import AllocationError
-from allocation.flexible import allocate_flexible, transfer_point_loads
+from allocation.flexible import allocate_flexible
 from allocation.load_path import build_load_path, explain_pier
-from allocation.results import PointLoad
 from ifc_bridge.model import Direction
 from tests.allocation._plans import diaphragm, lines_of, slab_load, wall_mass, x_wall
 
@@ -57,27 +57,13 @@ def _two_levels():
         roof_piers,
         direction=X,
     )
-    moving, _ = transfer_point_loads(
+    moving, _, stacked = split_transfers(
         roof_piers,
         top.pier_forces,
         low_lines,
         level_below="L1",
         direction=X,
         tolerance=0.5,
-    )
-    stacked = tuple(
-        PointLoad(
-            level="L1",
-            direction=X,
-            source_pier=pid,
-            location=(5.0, y),
-            force=top.pier_forces[pid],
-            shares=((line, top.pier_forces[pid]),),
-        )
-        for pid, y, line in (
-            ("R0|L2|0|0", 0.0, "L1-X-1"),
-            ("R10|L2|0|0", 10.0, "L1-X-2"),
-        )
     )
     extra = [wall_mass("G10", 500.0, (5.0, 10.0))]
     low = allocate_flexible(
@@ -86,7 +72,8 @@ def _two_levels():
         low_lines,
         low_piers,
         direction=X,
-        point_loads=moving + stacked,
+        point_loads=moving,
+        stacked=stacked,
     )
     return [top, low], roof_piers + low_piers
 
@@ -105,6 +92,23 @@ def test_two_level_forces_by_hand():
         slab / 2 + 2000.0 - slab + 300.0 + 200.0
     )
     assert low.pier_forces["G0a|L1|0|0"] == pytest.approx(low.line_forces["L1-X-1"] / 2)
+
+
+def test_stacked_walls_go_straight_to_their_lines():
+    (top, low), _ = _two_levels()
+    # the roof walls at y = 0 and 10 stand on the L1 lines: their whole shear (200 N,
+    # 300 N by the lever rule, by hand) goes to those lines, not into the diaphragm
+    assert low.stacked.source_piers == ("R0|L2|0|0", "R10|L2|0|0")
+    assert low.stacked.lines == ("L1-X-1", "L1-X-2")
+    assert low.stacked.forces == (
+        top.pier_forces["R0|L2|0|0"],
+        top.pier_forces["R10|L2|0|0"],
+    )
+    assert low.stacked.locations == ((5.0, 0.0), (5.0, 10.0))  # pier mid-points
+    assert [pl.source_pier for pl in low.point_loads] == ["RU|L2|0|0"]  # moves
+    # statics: everything from above is applied to the level
+    assert low.applied == pytest.approx(2000.0 + 1000.0)
+    assert math.fsum(low.line_forces.values()) == pytest.approx(low.applied)
 
 
 def test_explain_pier_traces_force_to_pieces_of_both_levels():

@@ -13,7 +13,9 @@ from tests.conftest import sample_path
 DEMO = Path(__file__).resolve().parents[2] / "sample_models"
 
 
-def test_ids_file_loads_with_ifctester_validation(tmp_path):  # buildingSMART IDS 1.0 XSD
+def test_ids_file_loads_with_ifctester_validation(
+    tmp_path,
+):  # buildingSMART IDS 1.0 XSD
     from ifctester import ids
 
     path = write_requirements_ids(tmp_path / "req.ids")
@@ -51,9 +53,12 @@ def test_storey_without_elevation_is_named(tmp_path):
 
     f = ifcopenshell.api.run("project.create_file", version="IFC4")
     project = ifcopenshell.api.run("root.create_entity", f, ifc_class="IfcProject")
-    storey = ifcopenshell.api.run("root.create_entity", f, ifc_class="IfcBuildingStorey")
-    ifcopenshell.api.run("aggregate.assign_object", f, relating_object=project,
-                         products=[storey])
+    storey = ifcopenshell.api.run(
+        "root.create_entity", f, ifc_class="IfcBuildingStorey"
+    )
+    ifcopenshell.api.run(
+        "aggregate.assign_object", f, relating_object=project, products=[storey]
+    )
     found = {x.clause.split()[-1]: x for x in requirement_findings(f, source="tiny")}
     assert storey.GlobalId in found["SL-01"].guids
 

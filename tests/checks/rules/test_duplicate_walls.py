@@ -13,39 +13,60 @@ from ifc_bridge.model import BuildingModel, Level, WallSegment
 
 
 def _wall(guid, start, end, storey="L1"):
-    return WallSegment(guid=guid, name=guid, storey=storey, level="L2",
-                       base_elevation=0.0, top_elevation=3.0, start=start, end=end,
-                       thickness=0.15)
+    return WallSegment(
+        guid=guid,
+        name=guid,
+        storey=storey,
+        level="L2",
+        base_elevation=0.0,
+        top_elevation=3.0,
+        start=start,
+        end=end,
+        thickness=0.15,
+    )
 
 
 def _model(*walls):
-    levels = (Level(name="L1", guid="s1", elevation=0.0, index=0),
-              Level(name="L2", guid="s2", elevation=3.0, index=1))
+    levels = (
+        Level(name="L1", guid="s1", elevation=0.0, index=0),
+        Level(name="L2", guid="s2", elevation=3.0, index=1),
+    )
     return BuildingModel(source="t.ifc", schema="IFC4", levels=levels, walls=walls)
 
 
-@pytest.mark.parametrize(("b_start", "b_end", "expected"), [
-    ((0.0, 0.0), (6.0, 0.0), 1.0),   # same wall, common practice
-    ((6.0, 0.0), (0.0, 0.0), 1.0),   # reversed direction
-    ((3.0, 0.05), (9.0, 0.05), 0.5),  # half overlap, within the thickness
-    ((0.0, 1.0), (6.0, 1.0), 0.0),   # parallel, 1 m apart: a different wall
-    ((0.0, 0.0), (0.0, 6.0), 0.0),   # perpendicular
-])
+@pytest.mark.parametrize(
+    ("b_start", "b_end", "expected"),
+    [
+        ((0.0, 0.0), (6.0, 0.0), 1.0),  # same wall, common practice
+        ((6.0, 0.0), (0.0, 0.0), 1.0),  # reversed direction
+        ((3.0, 0.05), (9.0, 0.05), 0.5),  # half overlap, within the thickness
+        ((0.0, 1.0), (6.0, 1.0), 0.0),  # parallel, 1 m apart: a different wall
+        ((0.0, 0.0), (0.0, 6.0), 0.0),  # perpendicular
+    ],
+)
 def test_overlap_fraction(b_start, b_end, expected):
     a = _wall("A", (0.0, 0.0), (6.0, 0.0))
     assert overlap_fraction(a, _wall("B", b_start, b_end)) == pytest.approx(expected)
 
 
 def test_copy_is_reported_once_with_both_guids():
-    found = check_duplicate_walls(_model(_wall("A", (0.0, 0.49), (6.0, 0.49)),
-                                         _wall("B", (0.0, 0.51), (6.0, 0.51)),
-                                         _wall("C", (0.0, 5.0), (6.0, 5.0))))
+    found = check_duplicate_walls(
+        _model(
+            _wall("A", (0.0, 0.49), (6.0, 0.49)),
+            _wall("B", (0.0, 0.51), (6.0, 0.51)),
+            _wall("C", (0.0, 5.0), (6.0, 5.0)),
+        )
+    )
     assert [f.guids for f in found] == [("A", "B")]
 
 
 def test_same_place_other_storey_is_not_a_duplicate():
-    assert check_duplicate_walls(_model(_wall("A", (0, 0), (6, 0)),
-                                        _wall("B", (0, 0), (6, 0), storey="L2"))) == []
+    assert (
+        check_duplicate_walls(
+            _model(_wall("A", (0, 0), (6, 0)), _wall("B", (0, 0), (6, 0), storey="L2"))
+        )
+        == []
+    )
 
 
 def test_cells_found_with_arrays_give_the_findings_of_the_plain_grid(monkeypatch):
@@ -57,8 +78,12 @@ def test_cells_found_with_arrays_give_the_findings_of_the_plain_grid(monkeypatch
     walls = []
     for storey in ("L1", "L2"):
         for i in range(6):
-            walls.append(_wall(f"{storey}{i}", (x0, y0 + 2 * i), (x0 + 6, y0 + 2 * i), storey))
-        walls.append(_wall(f"{storey}c", (x0 + 0.7, y0 + 4.04), (x0 + 6.7, y0 + 4.04), storey))
+            walls.append(
+                _wall(f"{storey}{i}", (x0, y0 + 2 * i), (x0 + 6, y0 + 2 * i), storey)
+            )
+        walls.append(
+            _wall(f"{storey}c", (x0 + 0.7, y0 + 4.04), (x0 + 6.7, y0 + 4.04), storey)
+        )
     walls.append(_wall("L1y", (x0 + 3, y0 - 3), (x0 + 3, y0 + 3), "L1"))
     model = _model(*walls)
     found = check_duplicate_walls(model)
@@ -67,11 +92,12 @@ def test_cells_found_with_arrays_give_the_findings_of_the_plain_grid(monkeypatch
     assert check_duplicate_walls(model) == found
 
 
-
 def _near_copies(bases, jitters) -> list[WallSegment]:
     """Walls and copies of them a little off: moved, longer, turned (invented)."""
     walls = []
-    for n, ((x, y, length, angle), copies) in enumerate(zip(bases, jitters, strict=True)):
+    for n, ((x, y, length, angle), copies) in enumerate(
+        zip(bases, jitters, strict=True)
+    ):
         ux, uy = math.cos(angle), math.sin(angle)
         walls.append(_wall(f"W{n}", (x, y), (x + length * ux, y + length * uy)))
         for m, (dx, dy, dl, da) in enumerate(copies):
