@@ -197,15 +197,25 @@ def _grouped(items: Iterable[_Row]) -> list[WeightItem]:
     ]
 
 
+def _landing(
+    model: BuildingModel, targets: dict[str, str | None]
+) -> dict[str | None, list[Diaphragm]]:
+    """The model's diaphragms by the level their weight lands on (None: the base)."""
+    out: dict[str | None, list[Diaphragm]] = {}
+    for d in model.diaphragms:
+        to = _lookup(targets, d.level, f"diaphragm {d.id}", model.source)
+        out.setdefault(to, []).append(d)
+    return out
+
+
 def _slab_parts(
-    model: BuildingModel, level: str, loads: DeadLoads, targets: dict[str, str | None]
+    landing: Sequence[Diaphragm], loads: DeadLoads
 ) -> tuple[list[_Row], list[MassItem]]:
-    """Slabs of the level, and of levels without a diaphragm whose weight lands here."""
+    """Slabs of the level, and of levels without a diaphragm whose weight lands
+    here (``landing``, in model order)."""
     rows: list[_Row] = []
     masses: list[MassItem] = []
-    for d in model.diaphragms:
-        if _lookup(targets, d.level, f"diaphragm {d.id}", model.source) != level:
-            continue
+    for d in landing:
         is_roof = d.kind.upper() == "ROOF"
         q = loads.roof if is_roof else loads.floor
         weight = d.area * q
@@ -267,11 +277,11 @@ def _level_load(
     *,
     base: Level,
     loads: DeadLoads,
-    targets: dict[str, str | None],
+    landing: Sequence[Diaphragm],
     shares: WallShares | None,
     extra: float,
 ) -> LevelLoad:
-    rows, slabs = _slab_parts(model, level.name, loads, targets)
+    rows, slabs = _slab_parts(landing, loads)
     located = MassTable.join(
         [MassTable.of(slabs)] + ([] if shares is None else [shares.masses()])
     )
@@ -341,13 +351,14 @@ def level_weights(
         missing=lambda name, w: _lookup(targets, name, f"wall {w.guid}", model.source),
     )
     extras = _extras(loads, model, diaphragms)
+    landing = _landing(model, targets)
     return tuple(
         _level_load(
             model,
             lv,
             base=base,
             loads=loads,
-            targets=targets,
+            landing=landing.get(lv.name, ()),
             shares=shares.get(lv.name),
             extra=extras.get(lv.name, 0.0),
         )
