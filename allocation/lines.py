@@ -22,6 +22,7 @@ from __future__ import annotations
 
 import dataclasses
 from collections.abc import Iterable, Sequence
+from dataclasses import dataclass
 from itertools import repeat
 
 import numpy as np
@@ -35,6 +36,7 @@ from allocation._crossing import (
     merge_intervals,
     region_crossings,
 )
+from allocation._memo import Memo, float_bytes, wkb_of
 from allocation.parameters import AnalysisOptions
 from allocation.results import Condition, ConditionKind, Pier, ResistanceLine
 from ifc_bridge.model import Diaphragm, Direction
@@ -177,24 +179,127 @@ def group_lines(
 ) -> tuple[tuple[ResistanceLine, ...], dict[str, str], tuple[Condition, ...]]:
     """:func:`find_lines`, giving each grouped pier's line id instead of new piers.
 
+    A level whose piers and regions are those of a level grouped before, to the bit
+    (a typical floor), takes that grouping from memory: the same lines, with this
+    level's names and pier ids.
+
     Returns:
         The lines, ``{pier id: line id}`` for the piers grouped, and the conditions.
     """
     regions = [d for d in diaphragms if d.level == level]
-    slabs = tuple(sorted({g for d in regions for g in d.slab_guids}))
-    probes = [RegionProbe(d) for d in regions]
     tol = options.line_tolerance
+    mine = {
+        d: [p for p in piers if p.level == level and p.direction is d]
+        for d in (Direction.X, Direction.Y)
+    }
+    key = (
+        float_bytes((tol, len(regions))),
+        tuple(wkb_of(d.polygon) for d in regions),
+        *(end_points(m).tobytes() if m else b"" for m in mine.values()),
+    )
+    layout = _LAYOUTS.get(key, lambda: _layout(mine, regions, tol))
+    if layout is None:  # piers at the same place along a line: ordered by id
+        return _grouped(mine, regions, level, level_index, tol)
     lines: list[ResistanceLine] = []
     assigned: dict[str, str] = {}
     conditions: list[Condition] = []
-    for direction in (Direction.X, Direction.Y):
-        mine = _placed(
-            [p for p in piers if p.level == level and p.direction is direction],
-            direction,
-        )
-        groups = _cluster(mine, tol)
+    for direction, placed in layout:
+        found = mine[direction]
+        if not placed:
+            conditions.append(_no_line(level, direction, _slabs(regions)))
+        for n, g in enumerate(placed, start=1):
+            line = ResistanceLine(
+                id=f"L{level_index}-{direction.value}-{n}",
+                level=level,
+                direction=direction,
+                offset=g.offset,
+                piers=tuple(found[i].id for i in g.order),
+                wall_extent=g.wall_extent,
+                wall_length=g.wall_length,
+                offset_range=g.offset_range,
+                crossings=tuple((regions[k].id, c) for k, c in g.crossings),
+                collector_length=g.collector_length,
+            )
+            lines.append(line)
+            for pid in line.piers:
+                assigned[pid] = line.id
+            if not line.crossings:
+                group = [found[i] for i in g.order]
+                conditions.append(_off_diaphragm(line, group))
+    return tuple(lines), assigned, tuple(conditions)
+
+
+@dataclass(frozen=True, slots=True)
+class _Placement:
+    """One line of a grouping, its piers by index in the level's list (private)."""
+
+    order: tuple[int, ...]
+    offset: float
+    wall_extent: tuple[float, float]
+    wall_length: float
+    offset_range: tuple[float, float] | None
+    crossings: tuple[tuple[int, float], ...]  # (region index, length [m])
+    collector_length: float
+
+
+# Each direction's lines of a level, by the exact numbers they are made of: the
+# tolerance, the regions' outlines and the piers' end points in order.
+_LAYOUTS: Memo[tuple[tuple[Direction, tuple[_Placement, ...]], ...] | None] = Memo(64)
+
+
+def _layout(
+    mine: dict[Direction, list[Pier]], regions: Sequence[Diaphragm], tol: float
+) -> tuple[tuple[Direction, tuple[_Placement, ...]], ...] | None:
+    """The grouping of :func:`_grouped` by pier index, or None where it depends on
+    the pier ids (two piers of a line at the same place along it)."""
+    lines, _, _ = _grouped(mine, regions, "", 0, tol)
+    region_of = {d.id: k for k, d in enumerate(regions)}
+    out = []
+    for direction, found in mine.items():
+        row = {p.id: i for i, p in enumerate(found)}
+        # each pier's (start, end) along the line, which _make_line sorts on
+        along = end_points(found)[:, :, 0 if direction is Direction.X else 1]
+        placed = []
+        for line in (ln for ln in lines if ln.direction is direction):
+            order = tuple(row[pid] for pid in line.piers)
+            spans = [tuple(sorted(along[i].tolist())) for i in order]
+            if len(set(spans)) < len(spans):
+                return None
+            placed.append(
+                _Placement(
+                    order=order,
+                    offset=line.offset,
+                    wall_extent=line.wall_extent,
+                    wall_length=line.wall_length,
+                    offset_range=line.offset_range,
+                    crossings=tuple((region_of[r], c) for r, c in line.crossings),
+                    collector_length=line.collector_length,
+                )
+            )
+        out.append((direction, tuple(placed)))
+    return tuple(out)
+
+
+def _slabs(regions: Sequence[Diaphragm]) -> tuple[str, ...]:
+    return tuple(sorted({g for d in regions for g in d.slab_guids}))
+
+
+def _grouped(
+    mine: dict[Direction, list[Pier]],
+    regions: Sequence[Diaphragm],
+    level: str,
+    level_index: int,
+    tol: float,
+) -> tuple[tuple[ResistanceLine, ...], dict[str, str], tuple[Condition, ...]]:
+    """:func:`group_lines` worked out, direction by direction."""
+    probes = [RegionProbe(d) for d in regions]
+    lines: list[ResistanceLine] = []
+    assigned: dict[str, str] = {}
+    conditions: list[Condition] = []
+    for direction, found in mine.items():
+        groups = _cluster(_placed(found, direction), tol)
         if not groups:
-            conditions.append(_no_line(level, direction, slabs))
+            conditions.append(_no_line(level, direction, _slabs(regions)))
         for n, group in enumerate(groups, start=1):
             line_id = f"L{level_index}-{direction.value}-{n}"
             line = _make_line(

@@ -3,9 +3,11 @@
 from __future__ import annotations
 
 import pytest
+from hypothesis import given, settings
+from hypothesis import strategies as st
 from shapely.geometry import Polygon, box
 
-from allocation.lines import find_lines, line_crossing
+from allocation.lines import _grouped, find_lines, group_lines, line_crossing
 from allocation.parameters import AnalysisOptions
 from allocation.piers import make_piers
 from allocation.results import ConditionKind
@@ -138,3 +140,49 @@ def test_other_levels_and_skewed_piers_pass_through_unchanged():
     _, out, _ = find_lines(piers, (RECT,), level="L1", level_index=1, options=OPTIONS)
     assert [p.id for p in out] == [p.id for p in piers]
     assert [p.line for p in out] == ["L1-X-1", "", "L1-Y-1"]
+
+
+# A typical floor: the same plan level after level, other GlobalIds. The grouping of
+# a repeated floor comes from memory; it must be exactly the fresh one's.
+_walls = st.lists(
+    st.tuples(
+        st.booleans(),  # along X, else along Y
+        st.sampled_from([0.0, 0.2, 3.0, 3.3, 7.5, 10.0]),  # offset [m]
+        st.sampled_from([0.0, 2.0, 5.0, 6.5]),  # start along [m]
+        st.sampled_from([1.0, 2.5, 4.0]),  # length [m]
+    ),
+    min_size=0,
+    max_size=9,
+)
+
+
+def _floor(spec, level, names):
+    made = []
+    for (along_x, off, a, n), guid in zip(spec, names, strict=False):
+        kw = {"level": level, "storey": f"{level}-below"}
+        wall = x_wall if along_x else y_wall
+        made.append(wall(guid, off, a, a + n, **kw))
+    return made
+
+
+@settings(max_examples=60, derandomize=True, deadline=None)
+@given(spec=_walls, data=st.data())
+def test_repeated_floor_groups_as_a_fresh_grouping(spec, data):
+    """Lines of a floor met before equal a fresh grouping (ids, order, numbers)."""
+    first = [f"A{k}" for k in range(len(spec))]
+    # the second floor's GlobalIds sort in another order: ties along a line (two
+    # walls at the same place) are then ordered differently by id
+    second = data.draw(st.permutations([f"B{k}" for k in range(len(spec))]))
+    plan = box(0.0, 0.0, 10.0, 10.0)
+    for level, names in (("L1", first), ("L2", second), ("L3", second)):
+        walls = _floor(spec, level, names)
+        piers, _ = make_piers(walls, OPTIONS)
+        region = [diaphragm(plan, level=level)]
+        kw = {"level": level, "level_index": 4, "options": OPTIONS}
+        got = group_lines(piers, region, **kw)
+        mine = {
+            d: [p for p in piers if p.direction is d]
+            for d in (Direction.X, Direction.Y)
+        }
+        fresh = _grouped(mine, region, level, 4, OPTIONS.line_tolerance)
+        assert got == fresh
