@@ -21,7 +21,7 @@ from __future__ import annotations
 import dataclasses
 import logging
 import math
-from collections.abc import Sequence
+from collections.abc import Iterator, Sequence
 
 from allocation._loading import load_masses, mass_items, total_weight
 from allocation._pieces import Support
@@ -396,7 +396,9 @@ def allocate_flexible(
     )
 
 
-def _transferred(point_loads: Sequence[PointLoad], stacked: StackedShear):
+def _transferred(
+    point_loads: Sequence[PointLoad], stacked: StackedShear
+) -> Iterator[float]:
     """The forces from the story above: point loads, then stacked shear [N]."""
     yield from (pl.force for pl in point_loads)
     yield from stacked.forces
