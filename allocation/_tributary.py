@@ -17,7 +17,7 @@ import shapely
 from shapely.geometry import Point, Polygon
 from shapely.ops import nearest_points
 
-from allocation._memo import Memo, wkb_of
+from allocation._memo import Memo, float_bytes, wkb_of
 from allocation._pieces import (
     Piece,
     Support,
@@ -69,6 +69,19 @@ class Slot:
 
 _PLANS: Memo[tuple[Polygon, ...]] = Memo(256)
 
+# What make_slots makes of a typical floor, by the exact numbers it reads (the regions'
+# outlines, the lines' offsets, extents and offset ranges, the tolerance): per region,
+# its supports as (line index, v, segments, spans) and its pieces as (local outline,
+# indices of their supports, plan outline, split key).
+_Layout = tuple[
+    tuple[
+        tuple[tuple[int, float, tuple, tuple], ...],
+        tuple[tuple[Polygon, tuple[int, ...], Polygon, Hashable], ...],
+    ],
+    ...,
+]
+_LAYOUTS: Memo[_Layout] = Memo(64)
+
 
 def make_slots(
     regions: Sequence[Diaphragm],
@@ -77,6 +90,9 @@ def make_slots(
     tol: float,
 ) -> list[Slot]:
     """Split every region by its lines' chords into pieces, ids ``<region>/<X|Y><n>``.
+
+    A typical floor (the same outlines and lines, to the bit, whatever the lines are
+    called) is laid out from memory.
 
     Args:
         regions: Diaphragm regions of the level.
@@ -87,14 +103,54 @@ def make_slots(
     Returns:
         Empty accumulators, one per piece, in region then piece order.
     """
+    numbers = [tol, len(lines)]
+    for ln in lines:
+        band = ln.offset_range
+        numbers += (ln.offset, *ln.wall_extent, band is None, *(band or ()))
+    key = (
+        direction,
+        float_bytes(numbers),
+        tuple(wkb_of(region.polygon) for region in regions),
+    )
+    layout = _LAYOUTS.get(key, lambda: _layout(regions, lines, direction, tol))
     slots = []
-    for region in regions:
+    for region, (found, cells) in zip(regions, layout, strict=True):
         supports = [
-            Support(line=line.id, v=c.offset, segments=c.segments, spans=c.spans)
-            for line, c in zip(
-                lines, region_crossings(lines, region, tolerance=tol), strict=True
+            Support(line=lines[i].id, v=v, segments=segments, spans=spans)
+            for i, v, segments, spans in found
+        ]
+        for n, (local, touching, plan, split) in enumerate(cells, start=1):
+            slots.append(
+                Slot(
+                    id=f"{region.id}/{direction.value}{n}",
+                    region=region,
+                    piece=Piece(
+                        local=local, supports=tuple(supports[j] for j in touching)
+                    ),
+                    plan=plan,
+                    key=(split, n),
+                )
             )
+    return slots
+
+
+def _layout(
+    regions: Sequence[Diaphragm],
+    lines: Sequence[ResistanceLine],
+    direction: Direction,
+    tol: float,
+) -> _Layout:
+    """:func:`make_slots` worked out, by line and support index."""
+    out = []
+    for region in regions:
+        found = [
+            (i, c)
+            for i, c in enumerate(region_crossings(lines, region, tolerance=tol))
             if c is not None
+        ]
+        supports = [
+            Support(line=lines[i].id, v=c.offset, segments=c.segments, spans=c.spans)
+            for i, c in found
         ]
         local = to_local(region.polygon, direction)
         key = split_key(local, supports, tol)
@@ -103,17 +159,17 @@ def make_slots(
             (key, direction),
             lambda pieces=pieces: tuple(to_plan(p.local, direction) for p in pieces),
         )
-        for n, (piece, plan) in enumerate(zip(pieces, plans, strict=True), start=1):
-            slots.append(
-                Slot(
-                    id=f"{region.id}/{direction.value}{n}",
-                    region=region,
-                    piece=piece,
-                    plan=plan,
-                    key=(key, n),
-                )
-            )
-    return slots
+        index = {id(s): j for j, s in enumerate(supports)}
+        cells = tuple(
+            (piece.local, tuple(index[id(s)] for s in piece.supports), plan, key)
+            for piece, plan in zip(pieces, plans, strict=True)
+        )
+        numbers = tuple(
+            (i, s.v, s.segments, s.spans)
+            for (i, _), s in zip(found, supports, strict=True)
+        )
+        out.append((numbers, cells))
+    return tuple(out)
 
 
 def on_line(u: float, v: float, slots: Sequence[Slot]) -> LineId | None:

@@ -17,6 +17,7 @@ from hypothesis import strategies as st
 from shapely.geometry import Polygon
 
 from allocation import _crossing, _loading, _memo, _pieces, _tributary
+from allocation import lines as lines_module
 from allocation._memo import Memo, wkb_of
 from allocation._pieces import Support, split_region
 from allocation._tributary import Slot, host, make_slots, on_line
@@ -52,6 +53,8 @@ def _forget() -> None:
     _crossing._CROSSINGS.clear()
     _tributary._SPREADS.clear()
     _tributary._PLACES.clear()
+    _tributary._LAYOUTS.clear()
+    lines_module._LAYOUTS.clear()
 
 
 def test_memo_keeps_the_most_recent_entries_and_computes_once():
@@ -124,6 +127,53 @@ def test_crossing_from_memory_names_this_floors_region():
     assert first.length == pytest.approx(18.0)
     assert (first.diaphragm, again.diaphragm) == ("L1/D1", "L2/D1")
     assert (again.segments, again.spans) == (first.segments, first.spans)
+
+
+def _floor_slots(level: str, index: int) -> list[Slot]:
+    walls = [x_wall("A", 0.0, 0.0, 20.0), x_wall("B", 6.0, 0.0, 8.0)]
+    walls += [x_wall("C", 12.0, 4.0, 20.0)]
+    walls = [
+        x_wall(f"{w.guid}{level}", w.start[1], w.start[0], w.end[0], level=level)
+        for w in walls
+    ]
+    piers, _ = make_piers(walls, OPTIONS)
+    region = diaphragm(SLAB, level=level)
+    lines, _, _ = find_lines(
+        piers, [region], level=level, level_index=index, options=OPTIONS
+    )
+    return make_slots([region], list(lines), Direction.X, 0.5)
+
+
+def _described(slots: list[Slot]) -> list[tuple]:
+    return [
+        (
+            s.id,
+            s.region.id,
+            s.piece.local.wkb,
+            s.plan.wkb,
+            s.piece.supports,
+            s.key,
+            (s.weight, s.moment_u, s.moment_v),
+        )
+        for s in slots
+    ]
+
+
+def test_slots_from_memory_carry_this_floors_lines_and_region():
+    _forget()
+    _floor_slots("L2", 2)
+    upper = _floor_slots("L3", 3)  # the same plan one floor up: laid out from memory
+    assert [s.id for s in upper] == ["L3/D1/X1", "L3/D1/X2", "L3/D1/X3"]
+    # by hand: line B (y = 6, x 0-8) is cut across where it ends, at x = 8
+    assert [[x.line for x in s.piece.supports] for s in upper] == [
+        ["L3-X-1", "L3-X-2"],
+        ["L3-X-1", "L3-X-3"],
+        ["L3-X-2", "L3-X-3"],
+    ]
+    assert [s.piece.local.area for s in upper] == pytest.approx([48.0, 140.0, 48.0])
+    _forget()
+    fresh = _floor_slots("L3", 3)
+    assert _described(upper) == _described(fresh)
 
 
 def _slots() -> list[Slot]:
