@@ -262,11 +262,12 @@ def _pier_forces(
     by_id = {p.id: p for p in piers}
     out: dict[str, float] = {}
     for line in lines:
-        missing = [pid for pid in line.piers if pid not in by_id]
-        if missing:
+        try:
+            members = [by_id[pid] for pid in line.piers]
+        except KeyError:
+            missing = [pid for pid in line.piers if pid not in by_id]
             msg = f"line {line.id}: piers {', '.join(missing)} were not given"
-            raise AllocationError(msg)
-        members = [by_id[pid] for pid in line.piers]
+            raise AllocationError(msg) from None
         out.update(
             distribute_in_line(line_forces[line.id], members, by=choose_basis(members))
         )

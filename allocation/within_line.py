@@ -81,14 +81,15 @@ def distribute_in_line(
         weights = pier_lengths(piers)  # Pier.length of each
     else:
         weights = [p.stiffness for p in piers]
-    if not all(math.isfinite(w) and w > 0.0 for w in weights):
+    # all finite and > 0: a NaN or -inf fails the min() test or makes the sum NaN
+    total = math.fsum(weights) if min(weights) > 0.0 else math.nan
+    if not math.isfinite(total):
         for p, w in zip(piers, weights, strict=True):
             if not (math.isfinite(w) and w > 0.0):
                 msg = (
                     f"pier {p.id}: {basis.value} {w} must be > 0 to share a line force"
                 )
                 raise ParameterError(msg)
-    total = math.fsum(weights)
     forces = {p.id: line_force * w / total for p, w in zip(piers, weights, strict=True)}
     big = piers[max(range(len(piers)), key=weights.__getitem__)].id
     forces[big] += line_force - math.fsum(forces.values())
