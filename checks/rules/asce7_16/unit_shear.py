@@ -103,18 +103,18 @@ def _base_capacity(
 class _Capacities:
     """:func:`pier_capacity` of many piers: assemblies by name, values by geometry.
 
-    The capacity of an assembly depends only on the pier's length, height and
-    thickness, and its aspect factor only on h/b, so each distinct set is worked
-    out once (a tower's typical floors repeat them).
+    The capacity of an assembly and its aspect factor depend only on the pier's
+    length, height and thickness, so each distinct set is worked out once (a tower's
+    typical floors repeat them).
     """
 
-    __slots__ = ("_assemblies", "_base", "_factor", "config")
+    __slots__ = ("_assemblies", "_found", "config")
 
     def __init__(self, config: ProjectConfig) -> None:
         self.config = config
         self._assemblies: dict[str, Assembly | None] = {}
-        self._base: dict[tuple, float | None] = {}
-        self._factor: dict[tuple[str, float], float] = {}
+        # (assembly, length, height, thickness) -> (capacity, aspect factor)
+        self._found: dict[tuple, tuple[float | None, float]] = {}
 
     def assembly(self, name: str) -> Assembly | None:
         """``config.assembly(name)``, looked up once per name."""
@@ -126,25 +126,20 @@ class _Capacities:
 
     def of(self, pier: Pier, length: float) -> tuple[float | None, float]:
         """:func:`pier_capacity` of ``pier``, whose length is ``length`` [m]."""
-        assembly = self.assembly(pier.assembly) if pier.assembly else None
+        key = (pier.assembly, length, pier.height, pier.thickness)
+        found = self._found.get(key)
+        if found is None:
+            found = self._found[key] = self._work_out(*key)
+        return found
+
+    def _work_out(
+        self, name: str, length: float, height: float, t: float
+    ) -> tuple[float | None, float]:
+        assembly = self.assembly(name) if name else None
         if assembly is None:
             return None, 1.0
-        ratio = pier.height / length  # Pier.aspect_ratio
-        key = (pier.assembly, ratio)
-        factor = self._factor.get(key)
-        if factor is None:
-            factor = self._factor[key] = aspect_factor(assembly, ratio)
-        geometry = (pier.assembly, length, pier.height, pier.thickness)
-        if geometry in self._base:
-            base = self._base[geometry]
-        else:
-            base = self._base[geometry] = _base_capacity(
-                assembly,
-                self.config,
-                length=length,
-                height=pier.height,
-                t=pier.thickness,
-            )
+        factor = aspect_factor(assembly, height / length)  # Pier.aspect_ratio
+        base = _base_capacity(assembly, self.config, length=length, height=height, t=t)
         if base is None:
             return None, factor
         return float(base) * factor, factor
