@@ -171,11 +171,11 @@ def wall_shares(
                     missing(name, w)
     assemblies: dict[str, int] = {}
     group = [assemblies.setdefault(a, len(assemblies)) for a in map(_ASSEMBLY, walls)]
-    q_found: dict[int, float] = {}
-    for w, g in zip(walls, group, strict=True):
-        if g not in q_found:
-            q_found[g] = unit_load(w)
-    q_of = [q_found[g] for g in range(len(assemblies))]
+    group_of = ints(group, len(group))
+    # each assembly's unit load, read off its first wall (group codes are in order of
+    # first appearance)
+    _, first = np.unique(group_of, return_index=True)
+    q_of = [unit_load(walls[i]) for i in first.tolist()]
     ends = end_points(walls, keep=True)  # the model's walls: read once per run
     mid = (ends[:, 0] + ends[:, 1]) / 2.0
     guids, parts = list(map(_GUID, walls)), list(map(_PART, walls))
@@ -187,7 +187,6 @@ def wall_shares(
         q=q_of,
     )
     area = _areas(walls, area_of) if walls else np.zeros(0)
-    group_of = ints(group, len(group))
     q = np.array(q_of, dtype=np.float64)[group_of]
     has_level = flags(map(bool, levels), len(levels))
     fraction = np.where(has_level, 0.5, 1.0)  # a parapet: all of it
