@@ -21,6 +21,7 @@ import shapely
 from shapely.geometry import Polygon
 
 from allocation._memo import Memo, float_bytes, wkb_of
+from allocation._records import maker
 from allocation.results import ResistanceLine
 from ifc_bridge.model import Diaphragm, Direction
 
@@ -61,6 +62,9 @@ class Crossing:
     def length(self) -> float:
         """Total chord length [m]."""
         return float(sum(b - a for a, b in self.segments))
+
+
+_crossing = maker(Crossing)  # Crossing(...), for every line on every region
 
 
 def merge_intervals(
@@ -203,7 +207,7 @@ def crossing_on(
     if found is None:
         return None
     offset, segments, spans = found
-    return Crossing(
+    return _crossing(
         diaphragm=region.diaphragm.id, offset=offset, segments=segments, spans=spans
     )
 

@@ -26,6 +26,7 @@ from allocation._pieces import (
     to_local,
     to_plan,
 )
+from allocation._records import maker
 from allocation.lines import along, perpendicular, region_crossings
 from allocation.results import LineId, ResistanceLine
 from ifc_bridge.model import Diaphragm, Direction
@@ -39,6 +40,8 @@ __all__ = [
 ]
 
 logger = logging.getLogger(__name__)
+
+_support, _piece = maker(Support), maker(Piece)  # for every level's pieces
 
 ON_LINE = 1e-6  # [m] a mass or point load this close to a chord is on the line
 _COVER_TOL = 1e-7  # [m] a mass polygon this close around a piece covers it
@@ -116,7 +119,7 @@ def make_slots(
     slots = []
     for region, (found, cells) in zip(regions, layout, strict=True):
         supports = [
-            Support(line=lines[i].id, v=v, segments=segments, spans=spans)
+            _support(line=lines[i].id, v=v, segments=segments, spans=spans)
             for i, v, segments, spans in found
         ]
         for n, (local, touching, plan, split) in enumerate(cells, start=1):
@@ -124,7 +127,7 @@ def make_slots(
                 Slot(
                     id=f"{region.id}/{direction.value}{n}",
                     region=region,
-                    piece=Piece(
+                    piece=_piece(
                         local=local, supports=tuple(supports[j] for j in touching)
                     ),
                     plan=plan,

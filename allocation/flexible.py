@@ -25,6 +25,7 @@ from collections.abc import Iterator, Sequence
 
 from allocation._loading import load_masses, mass_items, total_weight
 from allocation._pieces import Support
+from allocation._records import maker
 from allocation._transfers import transfer_point_loads
 from allocation._tributary import (
     Slot,
@@ -55,6 +56,8 @@ __all__ = ["allocate_flexible", "lever_rule", "transfer_point_loads"]
 # transfer_point_loads lives in allocation._transfers (module size); re-exported here.
 
 logger = logging.getLogger(__name__)
+
+_piece = maker(DiaphragmPiece)  # DiaphragmPiece(...), for every piece of every level
 
 
 def lever_rule(
@@ -122,7 +125,7 @@ def _finish_piece(
     force = scale * slot.weight
     supports = slot.piece.supports
     shares = lever_rule(force, v, supports)
-    piece = DiaphragmPiece(
+    piece = _piece(
         id=slot.id,
         diaphragm=slot.region.id,
         level=level,

@@ -37,6 +37,7 @@ from allocation._crossing import (
     region_crossings,
 )
 from allocation._memo import Memo, float_bytes, wkb_of
+from allocation._records import maker
 from allocation.parameters import AnalysisOptions
 from allocation.results import Condition, ConditionKind, Pier, ResistanceLine
 from ifc_bridge.model import Diaphragm, Direction
@@ -208,7 +209,7 @@ def group_lines(
         if not placed:
             conditions.append(_no_line(level, direction, _slabs(regions)))
         for n, g in enumerate(placed, start=1):
-            line = ResistanceLine(
+            line = _line(
                 id=f"L{level_index}-{direction.value}-{n}",
                 level=level,
                 direction=direction,
@@ -241,6 +242,8 @@ class _Placement:
     crossings: tuple[tuple[int, float], ...]  # (region index, length [m])
     collector_length: float
 
+
+_line = maker(ResistanceLine)  # ResistanceLine(...), for a typical floor's lines
 
 # Each direction's lines of a level, by the exact numbers they are made of: the
 # tolerance, the regions' outlines and the piers' end points in order.

@@ -26,6 +26,7 @@ from dataclasses import dataclass
 import shapely
 from shapely.geometry import Point
 
+from allocation._records import maker
 from allocation.results import (
     Allocation,
     DiaphragmPiece,
@@ -136,6 +137,14 @@ class DiaphragmDemands:
     collectors: tuple[Collector, ...]
 
 
+# the records of every line, piece and collector, built faster
+_line_shear, _chord_record, _collector = (
+    maker(LineShear),
+    maker(Chord),
+    maker(Collector),
+)
+
+
 def _side(coord: float, offset: float) -> int:
     return 1 if coord >= offset else 0
 
@@ -188,7 +197,7 @@ def _chord(
         return None
     depth = float(area) / span
     M = F * span / (2.0 if cant else 8.0)
-    return Chord(
+    return _chord_record(
         piece=piece.id,
         diaphragm=piece.diaphragm,
         level=piece.level,
@@ -248,7 +257,7 @@ def diaphragm_demands(
             crossing = crossing or ln.wall_length
             totals[lid] += r0 + r1
             shears.append(
-                LineShear(
+                _line_shear(
                     line=lid,
                     diaphragm=dia,
                     level=fr.level,
@@ -264,7 +273,7 @@ def diaphragm_demands(
             if ln.collector_length > 1e-6 and total > 0.0:
                 v = f * total / cross
                 collectors.append(
-                    Collector(
+                    _collector(
                         line=lid,
                         level=fr.level,
                         direction=fr.direction,
