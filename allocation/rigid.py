@@ -25,6 +25,7 @@ from __future__ import annotations
 
 from collections.abc import Sequence
 from dataclasses import dataclass
+from functools import cache
 from itertools import repeat
 from operator import attrgetter, is_
 
@@ -35,6 +36,7 @@ from allocation._columns import ends as end_points
 from allocation._columns import flags, floats
 from allocation._memo import float_bytes
 from allocation._pier_forces import PierForces, PierIndex
+from allocation._records import maker
 from allocation._rigid_inputs import validate as _validate
 from allocation.asce7_16 import s12_8_torsion
 from allocation.errors import ParameterError
@@ -49,6 +51,7 @@ force (δavg <= 0, the plan turns about a point inside it) or J = 0 under torsio
 ratio is unbounded and reported as this; Type 1b (> 1.4) and Ax = 3 (ratio >= 2.08)
 are reached far below it."""
 
+_rigid_result = maker(RigidResult)  # RigidResult(...), for every story and case
 _IRREGULAR_RATIO = 1.2  # ASCE 7-16 Table 12.3-1, Type 1a
 _STIFFNESS, _DIRECTION, _ID = (
     attrgetter("stiffness"),
@@ -84,6 +87,7 @@ class _Rigidity:
         return tuple(sorted({p.guid for p in self.piers}))
 
 
+@cache  # the same four frozen cases for every story
 def rigid_cases(direction: Direction) -> tuple[LoadCase, ...]:
     """The four rigid-diaphragm load cases of one direction: ±force × ±eccentricity.
 
@@ -334,7 +338,7 @@ def _allocate(
     direct = k_d / k_sum * F if k_sum > 0 else np.zeros_like(k_d)
     theta, conditions = _theta(rig, level=level, d=d, T=T, story_shear=story_shear)
     total = direct + theta * (rig.kx * -(rig.y - rig.ycr) + rig.ky * (rig.x - rig.xcr))
-    return RigidResult(
+    return _rigid_result(
         level=level,
         case=case,
         story_shear=F,
