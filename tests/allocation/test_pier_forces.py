@@ -12,8 +12,10 @@ from hypothesis import strategies as st
 from allocation._pier_forces import PierForces, PierIndex
 from allocation.envelope import envelope, line_envelope
 from allocation.errors import AllocationError
-from allocation.results import LoadCase, ResistanceLine, RigidResult
+from allocation.results import ResistanceLine
+from allocation.rigid import rigid_cases
 from ifc_bridge.model import Direction
+from tests.allocation.test_envelope import _rigid
 
 _ids = st.lists(st.text(min_size=1, max_size=6), min_size=0, max_size=12, unique=True)
 _force = st.floats(-1e7, 1e7, allow_nan=False)
@@ -53,29 +55,7 @@ def test_bad_shapes_and_repeated_ids_are_clear_errors():
         PierForces(PierIndex(["a", "b"]), np.array([1.0, 2.0, 3.0]))
 
 
-def _rigid(case: LoadCase, forces) -> RigidResult:
-    return RigidResult(
-        level="L1",
-        case=case,
-        story_shear=0.0,
-        center_of_mass=(0.0, 0.0),
-        center_of_rigidity=(0.0, 0.0),
-        eccentricity=0.0,
-        accidental=0.0,
-        Ax=1.0,
-        torsion=0.0,
-        J=1.0,
-        pier_forces=forces,
-        pier_direct={},
-    )
-
-
-_CASES = [
-    LoadCase(direction=d, sign=s, ecc_sign=e)
-    for d in (Direction.X, Direction.Y)
-    for s in (1, -1)
-    for e in (1, -1)
-]
+_CASES = [c for d in (Direction.X, Direction.Y) for c in rigid_cases(d)]
 
 
 @given(
@@ -93,12 +73,17 @@ def test_envelope_reads_the_arrays_as_it_reads_dicts(n, data):
         ]
         stories.append((index, rows))
     as_arrays = [
-        _rigid(c, PierForces(index, row))
+        _rigid(c.direction, c.sign, c.ecc_sign, PierForces(index, row))
         for index, rows in stories
         for c, row in zip(_CASES, rows, strict=True)
     ]
     as_dicts = [
-        _rigid(c, dict(zip(index.ids, row.tolist(), strict=True)))
+        _rigid(
+            c.direction,
+            c.sign,
+            c.ecc_sign,
+            dict(zip(index.ids, row.tolist(), strict=True)),
+        )
         for index, rows in stories
         for c, row in zip(_CASES, rows, strict=True)
     ]
